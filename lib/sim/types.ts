@@ -190,3 +190,43 @@ export interface SimResult {
   /** Wall time the engine took, ms. */
   wallMs: number;
 }
+
+/** Options of one simulation. `lib/sim/simulate.ts` exports `simulate(options): SimResult`. */
+export interface SimOptions {
+  definition: import("@/machines/schema").SequenceDefinition;
+  /** Overrides of the definition's setting values (canonical units). */
+  settings?: Record<string, number | string>;
+  patient: PatientInput;
+  /** A rig profile, or "ideal": no circuit compliance, no leak, ideal PEEP valve, ideal driver. */
+  rig: RigInput | "ideal";
+  durationS: number; // 0 < d ≤ 600
+  dtS?: number; // default 0.001
+  /** Controller scan period; default the rig's scanPeriodS, or 0.01 on the ideal circuit. */
+  scanS?: number;
+  seed?: number; // default 1
+  /** Wall-time budget, ms (default 20000): past it the run stops with an error. */
+  wallBudgetMs?: number;
+  /** Called now and then with the simulated fraction done (0..1). */
+  onProgress?: (fraction: number) => void;
+  /** Checked now and then; when it returns true the run stops with a "cancelled" error. */
+  shouldStop?: () => boolean;
+}
+
+/**
+ * A simulation advanced in pieces (the designer's live preview). `lib/sim/simulate.ts` exports
+ * `createSimulation(options): LiveSimulation`; `simulate()` is built on it.
+ */
+export interface LiveSimulation {
+  readonly time: number; // s simulated so far
+  readonly activeStep: string;
+  /** Advance by whole scans until `seconds` more have been simulated. */
+  advance(seconds: number): void;
+  /** Advance exactly one controller scan. */
+  stepScan(): void;
+  /** Deliver an operator/fault event (START, STOP, TAKEOVER, RESUME, SENSOR_FAULT, RESET) at the next scan. */
+  send(event: import("@/machines/schema").SequenceEvent): void;
+  /** Samples recorded since the last call (for a scrolling trace), then forgets them. */
+  drain(): { t: number[]; paw: number[]; flow: number[]; volume: number[]; step: string[] };
+  /** Metrics so far (breaths, alarms, summary) and all waveforms recorded. */
+  result(): SimResult;
+}
