@@ -83,3 +83,7 @@ export const revisionNumberParam = z.coerce
   .max(1_000_000);
 
 export const uuidParam = z.uuid({ error: "not found" });
+
+export const sequenceParams = z.object({ id: uuidParam });
+export const revisionParams = z.object({ id: uuidParam, n: revisionNumberParam });
+export const projectParams = z.object({ id: uuidParam });

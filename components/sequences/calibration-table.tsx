@@ -1,0 +1,126 @@
+"use client";
+/**
+ * The bag calibration rows of the rig form (angle → displaced volume), with the plot beside them so a
+ * mistyped point shows as a kink before it reaches a simulation.
+ */
+import { useFieldArray, useWatch, type Control, type FieldErrors, type UseFormRegister } from "react-hook-form";
+import type { RigInput } from "@/lib/sim/types";
+import { CalibrationPlot } from "./calibration-plot";
+
+interface Props {
+  control: Control<RigInput, unknown, unknown>;
+  register: UseFormRegister<RigInput>;
+  errors: FieldErrors<RigInput>;
+}
+
+export function CalibrationTable({ control, register, errors }: Props) {
+  const { fields, append, remove, insert } = useFieldArray({ control, name: "bagCalibration" });
+  const points = useWatch({ control, name: "bagCalibration" }) ?? [];
+  const tableError = errors.bagCalibration?.message ?? errors.bagCalibration?.root?.message;
+
+  function addAfter(index: number) {
+    const here = points[index];
+    const next = points[index + 1];
+    if (!here) return append({ angleDeg: 0, volumeMl: 0 });
+    if (!next) return append({ angleDeg: here.angleDeg + 10, volumeMl: here.volumeMl });
+    // A new row between two points starts at their midpoint, so the curve keeps its shape.
+    insert(index + 1, {
+      angleDeg: (here.angleDeg + next.angleDeg) / 2,
+      volumeMl: (here.volumeMl + next.volumeMl) / 2,
+    });
+  }
+
+  return (
+    <section aria-labelledby="rig-calibration" className="flex flex-col gap-3">
+      <div>
+        <h2 id="rig-calibration" className="text-base font-semibold">
+          Bag calibration
+        </h2>
+        <p className="text-sm text-black/60">
+          Volume the bag displaces at each arm angle, measured on the bench. Ascending angle, starting at 0 deg, 0 mL.
+        </p>
+      </div>
+      <div className="flex flex-col gap-6 lg:flex-row lg:items-start">
+        <table className="text-sm">
+          <thead>
+            <tr className="text-left text-black/60">
+              <th className="px-2 py-1 font-medium">#</th>
+              <th className="px-2 py-1 font-medium">Arm angle (deg)</th>
+              <th className="px-2 py-1 font-medium">Bag volume (mL)</th>
+              <th className="px-2 py-1">
+                <span className="sr-only">Row actions</span>
+              </th>
+            </tr>
+          </thead>
+          <tbody>
+            {fields.map((field, index) => {
+              const rowErrors = errors.bagCalibration?.[index];
+              return (
+                <tr key={field.id} className="border-t border-black/10">
+                  <td className="px-2 py-1 text-black/50 tabular-nums">{index + 1}</td>
+                  <td className="px-2 py-1">
+                    <input
+                      aria-label={`Angle of point ${index + 1}`}
+                      type="number"
+                      step="any"
+                      aria-invalid={rowErrors?.angleDeg ? true : undefined}
+                      className="w-24 rounded border border-black/15 bg-white px-2 py-0.5 font-mono tabular-nums disabled:bg-black/5"
+                      {...register(`bagCalibration.${index}.angleDeg`, { valueAsNumber: true })}
+                    />
+                    {rowErrors?.angleDeg?.message ? (
+                      <div role="alert" className="text-xs text-red-700">
+                        {rowErrors.angleDeg.message}
+                      </div>
+                    ) : null}
+                  </td>
+                  <td className="px-2 py-1">
+                    <input
+                      aria-label={`Volume of point ${index + 1}`}
+                      type="number"
+                      step="any"
+                      aria-invalid={rowErrors?.volumeMl ? true : undefined}
+                      className="w-24 rounded border border-black/15 bg-white px-2 py-0.5 font-mono tabular-nums disabled:bg-black/5"
+                      {...register(`bagCalibration.${index}.volumeMl`, { valueAsNumber: true })}
+                    />
+                    {rowErrors?.volumeMl?.message ? (
+                      <div role="alert" className="text-xs text-red-700">
+                        {rowErrors.volumeMl.message}
+                      </div>
+                    ) : null}
+                  </td>
+                  <td className="flex gap-1 px-2 py-1">
+                    <button
+                      type="button"
+                      onClick={() => addAfter(index)}
+                      className="rounded px-2 text-xs text-black/70 hover:bg-black/5"
+                      aria-label={`Add a point after point ${index + 1}`}
+                    >
+                      + row
+                    </button>
+                    <button
+                      type="button"
+                      onClick={() => remove(index)}
+                      disabled={fields.length <= 2}
+                      className="rounded px-2 text-xs text-black/70 hover:bg-black/5 disabled:opacity-30"
+                      aria-label={`Remove point ${index + 1}`}
+                    >
+                      remove
+                    </button>
+                  </td>
+                </tr>
+              );
+            })}
+          </tbody>
+        </table>
+        <CalibrationPlot
+          points={points.map((p) => ({ angleDeg: Number(p?.angleDeg), volumeMl: Number(p?.volumeMl) }))}
+        />
+      </div>
+      {tableError ? (
+        <p role="alert" className="text-sm text-red-700">
+          {tableError}
+        </p>
+      ) : null}
+    </section>
+  );
+}
