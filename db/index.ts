@@ -119,7 +119,7 @@ export async function getDb(): Promise<Db> {
 }
 
 /** Install an already opened (and migrated) handle as the process's database. For tests and tools. */
-export function useDatabase(handle: DbHandle): void {
+export function installDatabase(handle: DbHandle): void {
   const s = state();
   s.handle = handle;
   s.promise = Promise.resolve(handle);

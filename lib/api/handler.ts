@@ -92,7 +92,7 @@ export function route<
       }
 
       // 1. parse
-      const rawParams = args?.params ? await args.params : {};
+      const rawParams = (await args?.params) ?? {};
       const params = options.params ? parseWith(options.params, rawParams, "params") : undefined;
       const query = options.query
         ? parseWith(options.query, Object.fromEntries(new URL(req.url).searchParams), "query")
