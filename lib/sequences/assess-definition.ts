@@ -3,12 +3,13 @@
  * engine's compile, the static checks, and the content hash. Pure (no I/O), so the save handler,
  * the seed and an import all judge a definition the same way.
  *
- * Errors block a save (422); warnings are returned with the new revision.
+ * Errors block a save (422, only the errors are listed); warnings are returned with the new revision.
  */
 import type { z } from "zod";
 import { sequenceDefinition, type SequenceDefinition } from "@/machines/schema";
-import { compile, SequenceError } from "@/machines/compile";
-import { runStaticChecks, type Problem } from "@/machines/checks";
+import { compile, SequenceError, type SequenceIssue } from "@/machines/compile";
+import { runStaticChecks } from "@/machines/checks";
+import type { Problem, ProblemTarget } from "@/machines/checks/types";
 import { hashDefinition } from "@/machines/hash";
 
 export type Assessment =
@@ -28,11 +29,32 @@ function formatProblems(error: z.ZodError): Problem[] {
   });
 }
 
-/** machine.states.<step>… points at that step; anything else at the sequence as a whole. */
-function targetForPath(path: string[]): Problem["target"] {
-  if (path[0] === "machine" && path[1] === "states" && path[2]) return stepTarget(path[2]);
-  if (path[0] === "settings" && path[1]) return settingTarget(path[1]);
-  return sequenceTarget();
+/** Point at the step, setting or monitor a format issue sits in, so the problems panel can select it. */
+function targetForPath(path: string[]): ProblemTarget {
+  if (path[0] === "machine" && path[1] === "states" && path[2]) {
+    const field = path.slice(4).join(".");
+    return path[3] === "meta" && field ? { type: "step", step: path[2], field } : { type: "step", step: path[2] };
+  }
+  if (path[0] === "settings" && path[1]) return { type: "setting", setting: path[1] };
+  if (path[0] === "monitors" && path[1] !== undefined && /^\d+$/.test(path[1])) {
+    return { type: "definition", monitor: Number(path[1]) };
+  }
+  return { type: "definition" };
+}
+
+/** `machine.states.inhale.after.Ti[0].target` → ["machine", "states", "inhale", "after", "Ti", "0", "target"]. */
+function splitIssuePath(path: string): string[] {
+  return path.split(/\.|\[(\d+)\]/).filter((part): part is string => part !== undefined && part !== "");
+}
+
+/** The engine's compile issues in the checks' problem shape, so the 422 body has one kind of entry. */
+function compileProblems(issues: SequenceIssue[]): Problem[] {
+  return issues.map((issue) => ({
+    id: "compile",
+    severity: "error",
+    message: issue.path && issue.path !== "(definition)" ? `${issue.path}: ${issue.message}` : issue.message,
+    target: targetForPath(splitIssuePath(issue.path)),
+  }));
 }
 
 export function assessDefinition(raw: unknown): Assessment {
@@ -40,15 +62,16 @@ export function assessDefinition(raw: unknown): Assessment {
   if (!parsed.success) return { ok: false, problems: formatProblems(parsed.error) };
   const definition = parsed.data;
 
+  const found = runStaticChecks(definition);
+  const errors = found.filter((p) => p.severity === "error");
   try {
     compile(definition);
   } catch (err) {
-    if (err instanceof SequenceError) return { ok: false, problems: err.problems };
-    throw err;
+    if (!(err instanceof SequenceError)) throw err;
+    // The checks usually name the same fault with a stable id and a transition-level target, which
+    // the problems panel can select; the engine's own words are the fallback when they see nothing.
+    return { ok: false, problems: errors.length > 0 ? errors : compileProblems(err.issues) };
   }
-
-  const found = runStaticChecks(definition);
-  const errors = found.filter((p) => p.severity === "error");
-  if (errors.length > 0) return { ok: false, problems: found };
+  if (errors.length > 0) return { ok: false, problems: errors };
   return { ok: true, definition, hash: hashDefinition(definition), warnings: found };
 }

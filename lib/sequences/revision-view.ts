@@ -5,7 +5,8 @@
 import "server-only";
 import type { Db } from "@/db";
 import { getRevision, type RevisionDetail } from "@/db/queries/revisions";
-import { runStaticChecks, type Problem } from "@/machines/checks";
+import { runStaticChecks } from "@/machines/checks";
+import type { Problem } from "@/machines/checks/types";
 
 export interface RevisionView extends RevisionDetail {
   problems: Problem[];

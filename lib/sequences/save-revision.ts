@@ -12,7 +12,7 @@ import { can } from "@/lib/auth/roles";
 import type { SessionUser } from "@/lib/auth/types";
 import { forbidden, notFound } from "@/lib/errors";
 import { sequenceLayout } from "@/machines/schema";
-import type { Problem } from "@/machines/checks";
+import type { Problem } from "@/machines/checks/types";
 import type { SaveRevisionBody } from "@/lib/validation/sequences";
 import { assessDefinition } from "./assess-definition";
 
@@ -40,7 +40,7 @@ export async function saveRevision(
   if (body.baseRevision !== latest) return { kind: "stale", latestRevision: latest };
 
   const assessment = assessDefinition(body.definition);
-  if (!assessment.ok) return { kind: "invalid", problems: assessment.problems.filter((p) => p.severity === "error") };
+  if (!assessment.ok) return { kind: "invalid", problems: assessment.problems };
 
   const layout = sequenceLayout.safeParse(body.layout);
   const inserted = await insertRevision(db, {
