@@ -295,6 +295,8 @@ export interface NameInfo {
   dimension: InferredDimension;
   /** Choice settings: the allowed strings. */
   options?: readonly string[];
+  /** A numeric setting declared without a unit: it adapts like a literal, and we say where it did. */
+  unitless?: boolean;
 }
 export type FormulaScope = ReadonlyMap<string, NameInfo>;
 
@@ -316,7 +318,9 @@ export function formulaScope(settings: Readonly<Record<string, Setting>>): Formu
   const scope = new Map<string, NameInfo>();
   for (const name of Object.keys(CONSTANTS)) scope.set(name, { source: "constant", dimension: DIMENSIONS.dimensionless });
   for (const [name, s] of Object.entries(settings)) {
-    scope.set(name, { source: "setting", dimension: settingDimension(s), options: s.options });
+    const dimension = settingDimension(s);
+    const unitless = (s.unit ?? "").trim() === "" && dimension !== "unknown" && dimension.kind === "quantity";
+    scope.set(name, { source: "setting", dimension, options: s.options, unitless });
   }
   for (const name of Object.keys(SIGNALS) as SignalName[]) {
     scope.set(name, { source: "signal", dimension: signalDimension(name) });
@@ -334,7 +338,9 @@ export type FormulaProblemKind =
   | "unknown-function"
   | "unsupported"
   | "unit-mismatch"
-  | "unknown-option";
+  | "unknown-option"
+  /** Not an error: a unit-less setting met a dimensioned quantity, so units could not be checked there. */
+  | "unitless-setting";
 
 export interface FormulaProblem {
   kind: FormulaProblemKind;
@@ -358,8 +364,10 @@ export type Expectation = Dimension | "any";
 
 interface Inferred {
   dim: InferredDimension;
-  /** Built from number literals only, so it adapts to the dimension it meets. */
+  /** Built from number literals (or unit-less settings) only, so it adapts to the dimension it meets. */
   free: boolean;
+  /** The unit-less setting a free value came from, if any. */
+  unitless?: string;
 }
 const UNKNOWN: Inferred = { dim: "unknown", free: false };
 
@@ -379,7 +387,27 @@ const UNIT_HINTS = new Set([...Object.keys(UNIT_SYMBOLS), "psi", "kPa", "Pa", "l
 
 class Inference {
   readonly problems: FormulaProblem[] = [];
+  /** Unit-less setting → the dimensions it was taken as, reported once per setting at the end. */
+  private readonly adapted = new Map<string, Set<string>>();
   constructor(private readonly scope: FormulaScope) {}
+
+  /** Note that a free value met `dim`; only interesting when it is a unit-less setting meeting a unit. */
+  adapt(free: Inferred, dim: InferredDimension): void {
+    if (!free.unitless || dim === "unknown" || dim.kind !== "quantity" || sameDimension(dim, DIMENSIONS.dimensionless)) return;
+    const uses = this.adapted.get(free.unitless) ?? new Set<string>();
+    uses.add(describeDimension(dim));
+    this.adapted.set(free.unitless, uses);
+  }
+
+  /** Problems including one note per unit-less setting that stood in for a dimensioned quantity. */
+  finish(): FormulaProblem[] {
+    const notes: FormulaProblem[] = [...this.adapted].map(([name, uses]) => ({
+      kind: "unitless-setting",
+      name,
+      message: `${name} has no unit but is used as ${[...uses].join(" and as ")}, so its units cannot be checked here; give it a unit (one setting per use if it serves several).`,
+    }));
+    return [...this.problems, ...notes];
+  }
 
   private report(kind: FormulaProblemKind, message: string, name?: string): void {
     if (this.problems.some((p) => p.message === message)) return;
@@ -422,6 +450,7 @@ class Inference {
       this.report("unknown-name", `\`${name}\` is not a signal or a setting.${hint}`, name);
       return UNKNOWN;
     }
+    if (info.unitless) return { dim: DIMENSIONS.dimensionless, free: true, unitless: name };
     return { dim: info.dimension, free: false };
   }
 
@@ -448,14 +477,9 @@ class Inference {
         return this.numeric(args[0], argNodes[0], "negate") ? args[0] : UNKNOWN;
       case "multiply":
       case "divide":
-      case "dotMultiply":
-      case "dotDivide":
-        return this.product(args, argNodes, fn === "multiply" || fn === "dotMultiply" ? 1 : -1);
+        return this.product(args, argNodes, fn === "multiply" ? 1 : -1);
       case "pow":
-      case "dotPow":
         return this.power(args[0], argNodes[0], args[1], argNodes[1]);
-      case "factorial":
-        return this.dimensionlessOnly(args, argNodes, "`!`");
       default:
         this.report("unsupported", `The operator in \`${text}\` is not supported in sequence formulas.`);
         return UNKNOWN;
@@ -476,8 +500,14 @@ class Inference {
       this.report("unit-mismatch", `\`${text}\` tries to ${verb} ${describeDimension(a.dim)} and ${describeDimension(b.dim)}.`);
       return UNKNOWN;
     }
-    if (a.free) return b;
-    if (b.free) return a;
+    if (a.free) {
+      this.adapt(a, b.dim);
+      return b.free ? { ...b, unitless: b.unitless ?? a.unitless } : b;
+    }
+    if (b.free) {
+      this.adapt(b, a.dim);
+      return a;
+    }
     if (!sameDimension(a.dim, b.dim)) {
       this.report(
         "unit-mismatch",
@@ -491,6 +521,8 @@ class Inference {
   private comparable(a: Inferred, b: Inferred, text: string, equality: boolean): void {
     if (a.dim === "unknown" || b.dim === "unknown") return;
     if (a.dim.kind === "quantity" && b.dim.kind === "quantity") {
+      if (a.free) this.adapt(a, b.dim);
+      if (b.free) this.adapt(b, a.dim);
       if (a.free || b.free || sameDimension(a.dim, b.dim)) return;
     } else if (equality && a.dim.kind === b.dim.kind) {
       return;
@@ -531,7 +563,9 @@ class Inference {
     if (!ok.every(Boolean)) return UNKNOWN;
     const [a, b] = args;
     if (a.dim === "unknown" || b.dim === "unknown" || a.dim.kind !== "quantity" || b.dim.kind !== "quantity") return UNKNOWN;
-    return { dim: combine(a.dim as Dimension & { kind: "quantity" }, b.dim as Dimension & { kind: "quantity" }, sign), free: a.free && b.free };
+    const free = a.free && b.free;
+    const dim = combine(a.dim as Dimension & { kind: "quantity" }, b.dim as Dimension & { kind: "quantity" }, sign);
+    return free ? { dim, free, unitless: a.unitless ?? b.unitless } : { dim, free };
   }
 
   private power(base: Inferred, baseNode: MathNode, exp: Inferred, expNode: MathNode): Inferred {
@@ -677,14 +711,16 @@ const plainRule = (min: number, max: number): FunctionRule => ({
   infer: (ctx, args, nodes, name) => ctx.dimensionless(args, nodes, name),
 });
 
-/** Functions we understand; anything else is reported (the engine's restricted instance refuses it too). */
+/**
+ * Functions we understand: the same list the engine's restricted instance allows (machines/formula.ts);
+ * anything else is reported, since the engine would refuse it.
+ */
 const FUNCTIONS: Record<string, FunctionRule> = {
   min: sameRule(1, Infinity),
   max: sameRule(1, Infinity),
   abs: sameRule(1, 1),
   floor: sameRule(1, 1),
   ceil: sameRule(1, 1),
-  fix: sameRule(1, 1),
   round: {
     minArgs: 1,
     maxArgs: 2,
@@ -693,8 +729,6 @@ const FUNCTIONS: Record<string, FunctionRule> = {
       return ctx.sameAll([args[0]], [nodes[0]], name);
     },
   },
-  hypot: sameRule(1, Infinity),
-  mod: sameRule(2, 2),
   sign: {
     minArgs: 1,
     maxArgs: 1,
@@ -704,26 +738,13 @@ const FUNCTIONS: Record<string, FunctionRule> = {
     },
   },
   sqrt: { minArgs: 1, maxArgs: 1, infer: (ctx, args, nodes) => ctx.root(args, nodes, 1 / 2) },
-  cbrt: { minArgs: 1, maxArgs: 1, infer: (ctx, args, nodes) => ctx.root(args, nodes, 1 / 3) },
   pow: { minArgs: 2, maxArgs: 2, infer: (ctx, args, nodes) => ctx.powerCall(args, nodes) },
   exp: plainRule(1, 1),
   log: plainRule(1, 2),
   log10: plainRule(1, 1),
-  log2: plainRule(1, 1),
   sin: { minArgs: 1, maxArgs: 1, infer: (ctx, args, nodes, name) => ctx.angleOrPlain(args, nodes, name) },
   cos: { minArgs: 1, maxArgs: 1, infer: (ctx, args, nodes, name) => ctx.angleOrPlain(args, nodes, name) },
   tan: { minArgs: 1, maxArgs: 1, infer: (ctx, args, nodes, name) => ctx.angleOrPlain(args, nodes, name) },
-  asin: plainRule(1, 1),
-  acos: plainRule(1, 1),
-  atan: plainRule(1, 1),
-  atan2: {
-    minArgs: 2,
-    maxArgs: 2,
-    infer: (ctx, args, nodes, name) => {
-      const a = ctx.sameAll(args, nodes, name);
-      return a.dim === "unknown" ? a : { dim: DIMENSIONS.dimensionless, free: a.free };
-    },
-  },
 };
 
 /** Function names the analysis understands, for the inspector's "names you may use" list. */
@@ -759,7 +780,8 @@ export function analyseFormula(expr: string, scope: FormulaScope, expect: Expect
   }
   const inference = new Inference(scope);
   const result = inference.infer(parsed.ast);
-  const problems = [...inference.problems];
+  if (result.free && expect !== "any") inference.adapt(result, expect);
+  const problems = inference.finish();
   const mismatch = expectationProblem(result, expect, expr);
   if (mismatch) problems.push(mismatch);
   const { symbols, functions } = formulaNames(parsed.ast);
@@ -969,21 +991,15 @@ function callRange(name: string, args: RangeValue[]): RangeValue {
       return monotone(Math.floor, args[0]);
     case "ceil":
       return monotone(Math.ceil, args[0]);
-    case "fix":
-      return monotone(Math.trunc, args[0]);
     case "round":
       return args.length === 1 ? monotone(Math.round, args[0]) : UNKNOWN_RANGE;
     case "sqrt":
       // mathjs returns a complex number below zero, so only a non-negative range is bounded.
       return monotone(Math.sqrt, args[0], 0);
-    case "cbrt":
-      return monotone(Math.cbrt, args[0]);
     case "exp":
       return monotone(Math.exp, args[0]);
     case "log10":
       return monotone(Math.log10, args[0], Number.MIN_VALUE);
-    case "log2":
-      return monotone(Math.log2, args[0], Number.MIN_VALUE);
     case "log":
       return args.length === 1 ? monotone(Math.log, args[0], Number.MIN_VALUE) : UNKNOWN_RANGE;
     case "sign":
@@ -1032,8 +1048,7 @@ export function evaluateRangeAst(node: MathNode, env: RangeEnvironment): RangeVa
       }
       if (v.fn === "unaryMinus") return args[0].kind === "number" ? interval(-args[0].hi, -args[0].lo) : UNKNOWN_RANGE;
       if (v.fn === "unaryPlus") return args[0];
-      const fn = v.fn === "dotMultiply" ? "multiply" : v.fn === "dotDivide" ? "divide" : v.fn === "dotPow" ? "pow" : v.fn;
-      return arithmetic(fn, args[0], args[1]);
+      return arithmetic(v.fn, args[0], args[1]);
     }
     case "FunctionNode": {
       const fn = view(v.fn);

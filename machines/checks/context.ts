@@ -61,8 +61,8 @@ export function describeVia(site: Pick<TransitionSite, "via" | "key">): string {
 }
 
 /** "the timer `Ti` exit from inhale to exhale" — how messages name a transition. */
-export function describeTransition(site: TransitionSite): string {
-  const guard = site.transition.guard ? ` when \`${site.transition.guard.params.expr}\`` : "";
+export function describeTransition(site: TransitionSite, withCondition = true): string {
+  const guard = withCondition && site.transition.guard ? ` when \`${site.transition.guard.params.expr}\`` : "";
   const trigger = site.via === "after" ? `after \`${site.key}\`` : site.via === "SCAN" ? "on scan" : `on ${site.via}`;
   return `the exit from ${site.step} to ${site.transition.target} ${trigger}${guard}`;
 }
@@ -126,7 +126,7 @@ function collectFormulas(definition: SequenceDefinition, transitions: Transition
         expr: t.transition.guard.params.expr,
         expect: DIMENSIONS.boolean,
         target: t.target,
-        place: `the condition of ${describeTransition(t)}`,
+        place: `the condition of ${describeTransition(t, false)}`,
       });
     }
   }

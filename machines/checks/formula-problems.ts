@@ -3,17 +3,22 @@
  * checks differ only in which kinds they report and under which id.
  */
 import type { CheckContext } from "@/machines/checks/context";
-import type { Problem } from "@/machines/checks/types";
+import type { Problem, Severity } from "@/machines/checks/types";
 import type { FormulaProblemKind } from "@/machines/formula-analysis";
 
-export function formulaProblems(ctx: CheckContext, kind: FormulaProblemKind, id: string): Problem[] {
+export function formulaProblems(
+  ctx: CheckContext,
+  kind: FormulaProblemKind,
+  id: string,
+  severity: Severity = "error",
+): Problem[] {
   const problems: Problem[] = [];
   for (const site of ctx.formulas) {
     for (const p of site.analysis.problems) {
       if (p.kind !== kind) continue;
       problems.push({
         id,
-        severity: "error",
+        severity,
         message: `In ${site.place} (\`${site.expr}\`): ${p.message}`,
         target: site.target,
       });

@@ -15,6 +15,7 @@ import { checkBackupTimer } from "@/machines/checks/backup-timer";
 import { checkFormulaSyntax } from "@/machines/checks/formula-syntax";
 import { checkFormulaNames } from "@/machines/checks/formula-names";
 import { checkUnitMismatch } from "@/machines/checks/unit-mismatch";
+import { checkUnitlessSettings } from "@/machines/checks/unitless-setting";
 import { checkExitNeverTrue } from "@/machines/checks/exit-never-true";
 import { checkExitAlwaysTrue } from "@/machines/checks/exit-always-true";
 import { checkZeroTimeCycles } from "@/machines/checks/zero-time-cycle";
@@ -33,6 +34,7 @@ const CHECKS: ReadonlyArray<(ctx: CheckContext) => Problem[]> = [
   checkFormulaSyntax,
   checkFormulaNames,
   checkUnitMismatch,
+  checkUnitlessSettings,
   checkSettingNames,
   checkSettingFormulas,
   checkSettingValues,
