@@ -1,0 +1,69 @@
+import type { Summary } from "@/lib/sim/types";
+import { formatSigned } from "./lib/format";
+import { diffSummaries } from "./lib/summary-diff";
+import { fieldValue } from "./summary-panel";
+
+interface SummaryDiffTableProps {
+  a: Summary;
+  b: Summary;
+  labelA: string;
+  labelB: string;
+}
+
+/** Summary figures of two runs side by side: A, B, B − A (and the relative change), each with its unit. */
+export function SummaryDiffTable({ a, b, labelA, labelB }: SummaryDiffTableProps) {
+  const rows = diffSummaries(a, b);
+  return (
+    <section aria-labelledby="summary-diff-heading" data-testid="summary-diff-table" className="rounded-md border border-slate-200 bg-white">
+      <h2 id="summary-diff-heading" className="px-3 pt-2 text-sm font-semibold text-slate-800">
+        Summary differences
+      </h2>
+      <div className="overflow-x-auto">
+        <table className="w-full border-collapse text-xs tabular-nums">
+          <thead className="bg-slate-50 text-slate-700">
+            <tr>
+              <th scope="col" className="px-2 py-1 text-left font-medium">
+                Figure
+              </th>
+              <th scope="col" className="px-2 py-1 text-left font-medium">
+                Unit
+              </th>
+              <th scope="col" className="px-2 py-1 text-right font-medium" title={labelA}>
+                A
+              </th>
+              <th scope="col" className="px-2 py-1 text-right font-medium" title={labelB}>
+                B
+              </th>
+              <th scope="col" className="px-2 py-1 text-right font-medium">
+                B − A
+              </th>
+              <th scope="col" className="px-2 py-1 text-right font-medium">
+                Change (%)
+              </th>
+            </tr>
+          </thead>
+          <tbody>
+            {rows.map((row) => {
+              const changed = row.delta !== null && Number(row.delta.toFixed(row.field.digits)) !== 0;
+              return (
+                <tr key={row.field.key} data-testid={`diff-${row.field.key}`} className="border-b border-slate-100">
+                  <th scope="row" className="px-2 py-0.5 text-left font-normal text-slate-700">
+                    {row.field.label}
+                  </th>
+                  <td className="px-2 py-0.5 text-slate-500">{row.field.unit}</td>
+                  <td className="px-2 py-0.5 text-right text-slate-900">{fieldValue(row.field, row.a)}</td>
+                  <td className="px-2 py-0.5 text-right text-slate-900">{fieldValue(row.field, row.b)}</td>
+                  <td className={`px-2 py-0.5 text-right ${changed ? "font-semibold text-slate-900" : "text-slate-500"}`} data-testid={`diff-${row.field.key}-delta`}>
+                    {formatSigned(row.delta, row.field.digits)}
+                  </td>
+                  <td className="px-2 py-0.5 text-right text-slate-500">{row.percent === null ? "—" : `${formatSigned(row.percent, 1)}`}</td>
+                </tr>
+              );
+            })}
+          </tbody>
+        </table>
+      </div>
+    </section>
+  );
+}
+
