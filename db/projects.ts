@@ -4,29 +4,10 @@ import type { Db } from "./index";
 import { projectMembers, projects, users, type Project } from "./schema";
 import type { Role } from "@/lib/auth/roles";
 import type { SessionUser } from "@/lib/auth/types";
+import type { ProjectDetail, ProjectMember, ProjectSummary } from "@/lib/validation/projects";
+
+export type { ProjectDetail, ProjectMember, ProjectSummary };
 import { recordAudit } from "./audit";
-
-export interface ProjectSummary {
-  id: string;
-  name: string;
-  description: string;
-  createdAt: string;
-  createdBy: string | null;
-  memberCount: number;
-}
-
-export interface ProjectMember {
-  id: string;
-  name: string;
-  email: string;
-  role: Role;
-}
-
-export interface ProjectDetail extends ProjectSummary {
-  /** The caller's effective role in this project. */
-  yourRole: Role;
-  members: ProjectMember[];
-}
 
 const memberCount = sql<number>`(select count(*)::int from ${projectMembers} where ${projectMembers.projectId} = ${projects.id})`;
 

@@ -4,16 +4,9 @@ import type { Db } from "./index";
 import { sessions, users, type User } from "./schema";
 import type { Role } from "@/lib/auth/roles";
 import { hashPassword } from "@/lib/auth/password";
+import type { UserSummary } from "@/lib/validation/users";
 
-/** What the API shows of a user (never the hash). */
-export interface UserSummary {
-  id: string;
-  email: string;
-  name: string;
-  role: Role;
-  active: boolean;
-  createdAt: string;
-}
+export type { UserSummary };
 
 export function toUserSummary(u: User): UserSummary {
   return { id: u.id, email: u.email, name: u.name, role: u.role, active: u.active, createdAt: u.createdAt.toISOString() };

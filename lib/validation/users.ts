@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { ROLES } from "@/lib/auth/roles";
+import { ROLES, type Role } from "@/lib/auth/roles";
 import { email, newPassword } from "./auth";
 
 export const role = z.enum(ROLES, { error: "Choose a role: admin, engineer, clinician or viewer." });
@@ -21,3 +21,13 @@ export const updateUserSchema = z
 export type UpdateUserInput = z.input<typeof updateUserSchema>;
 
 export const userParams = z.object({ id: z.uuid({ error: "Not a user id." }) });
+
+/** What the API shows of a user (never the hash). */
+export interface UserSummary {
+  id: string;
+  email: string;
+  name: string;
+  role: Role;
+  active: boolean;
+  createdAt: string;
+}
