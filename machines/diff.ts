@@ -29,7 +29,7 @@ export interface TransitionAddress {
 }
 
 export interface TransitionRef {
-  /** Stable identity across both sides: "step|via|key|target#n". */
+  /** Identity shared by both sides when matched: "step|via|key|target#n". */
   id: string;
   step: string;
   via: TransitionVia;
@@ -110,23 +110,22 @@ function asList(t: Transition | Transition[] | undefined): Transition[] {
 
 interface Listed {
   ref: TransitionRef;
-  /** Identity without the occurrence number, for grouping by trigger list. */
+  /** Step, trigger and key: the list the transition sits in, whose order is its priority. */
   list: string;
+  /** List plus target: the identity, before duplicates are told apart. */
+  base: string;
 }
 
 function listTransitions(definition: SequenceDefinition): Listed[] {
   const out: Listed[] = [];
-  const occurrences = new Map<string, number>();
   const add = (step: string, via: TransitionVia, key: string | undefined, transitions: Transition[]): void => {
     const list = `${step}|${via}|${key ?? ""}`;
     transitions.forEach((transition, index) => {
       const base = `${list}|${transition.target}`;
-      const n = occurrences.get(base) ?? 0;
-      occurrences.set(base, n + 1);
       const at: TransitionAddress = key === undefined ? { step, via, index } : { step, via, key, index };
-      const ref: TransitionRef = { id: `${base}#${n}`, step, via, target: transition.target, transition, at };
+      const ref: TransitionRef = { id: base, step, via, target: transition.target, transition, at };
       if (key !== undefined) ref.key = key;
-      out.push({ ref, list });
+      out.push({ ref, list, base });
     });
   };
   for (const [step, config] of Object.entries(definition.machine.states) as Array<[string, StateConfig]>) {
@@ -136,6 +135,35 @@ function listTransitions(definition: SequenceDefinition): Listed[] {
     }
   }
   return out;
+}
+
+/**
+ * Give matching transitions of both sides the same id. Exits sharing an identity (two scan exits from
+ * inhale to exhale) pair first with an identical twin, so reordering them reads as a priority change
+ * rather than two edited conditions; the rest pair in order of appearance.
+ */
+function assignIds(left: Listed[], right: Listed[]): void {
+  const groups = new Map<string, { a: Listed[]; b: Listed[] }>();
+  for (const l of left) (groups.get(l.base) ?? groups.set(l.base, { a: [], b: [] }).get(l.base)!).a.push(l);
+  for (const r of right) (groups.get(r.base) ?? groups.set(r.base, { a: [], b: [] }).get(r.base)!).b.push(r);
+  for (const [base, { a, b }] of groups) {
+    let n = 0;
+    const freeB = new Set(b);
+    const unpairedA: Listed[] = [];
+    for (const l of a) {
+      const twin = [...freeB].find((r) => same(l.ref.transition, r.ref.transition));
+      if (twin) {
+        freeB.delete(twin);
+        l.ref.id = twin.ref.id = `${base}#${n++}`;
+      } else unpairedA.push(l);
+    }
+    const restB = [...freeB];
+    unpairedA.forEach((l, i) => {
+      l.ref.id = `${base}#${n++}`;
+      if (restB[i]) restB[i].ref.id = l.ref.id;
+    });
+    for (const r of restB.slice(unpairedA.length)) r.ref.id = `${base}#${n++}`;
+  }
 }
 
 /** Rank of each id among the transitions of its list that exist on both sides. */
@@ -154,6 +182,7 @@ function ranks(listed: Listed[], common: Set<string>): Map<string, number> {
 function diffTransitions(a: SequenceDefinition, b: SequenceDefinition): DefinitionDiff["transitions"] {
   const left = listTransitions(a);
   const right = listTransitions(b);
+  assignIds(left, right);
   const leftById = new Map(left.map((l) => [l.ref.id, l.ref]));
   const rightById = new Map(right.map((r) => [r.ref.id, r.ref]));
   const common = new Set([...leftById.keys()].filter((id) => rightById.has(id)));
