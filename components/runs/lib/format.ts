@@ -53,7 +53,7 @@ export function niceTicks(min: number, max: number, target = 5): number[] {
   const rough = (hi - lo) / Math.max(1, target);
   const magnitude = 10 ** Math.floor(Math.log10(rough));
   const residual = rough / magnitude;
-  const step = (residual >= 5 ? 10 : residual >= 2 ? 5 : residual >= 1 ? 2 : 1) * magnitude;
+  const step = (residual < 1.5 ? 1 : residual < 3 ? 2 : residual < 7 ? 5 : 10) * magnitude;
   const first = Math.ceil(lo / step - 1e-9) * step;
   const ticks: number[] = [];
   for (let value = first; value <= hi + step * 1e-9; value += step) {
