@@ -39,7 +39,7 @@ export function CalibrationPlot({ points, width = 320, height = 180 }: Props) {
       role="img"
       aria-label={`Bag volume against arm angle, ${finite.length} points`}
       viewBox={`0 0 ${width} ${height}`}
-      className="h-auto w-full max-w-sm text-[var(--color-ink,#1c2b33)]"
+      className="h-auto w-full max-w-sm text-ink-700"
     >
       <rect x={PAD.left} y={PAD.top} width={plotW} height={plotH} fill="none" stroke="currentColor" strokeOpacity={0.2} />
       {[0.25, 0.5, 0.75].map((f) => (
@@ -53,7 +53,7 @@ export function CalibrationPlot({ points, width = 320, height = 180 }: Props) {
           strokeOpacity={0.08}
         />
       ))}
-      <polyline points={line} fill="none" stroke="var(--color-sea, #3f8f86)" strokeWidth={2} />
+      <polyline points={line} fill="none" stroke="var(--color-glass-600)" strokeWidth={2} />
       {finite.map((p, i) => {
         const outOfOrder = i > 0 && p.angleDeg <= finite[i - 1].angleDeg;
         return (
@@ -62,7 +62,7 @@ export function CalibrationPlot({ points, width = 320, height = 180 }: Props) {
             cx={x(p.angleDeg)}
             cy={y(p.volumeMl)}
             r={outOfOrder ? 4 : 3}
-            fill={outOfOrder ? "var(--color-accent, #d9822b)" : "var(--color-sea, #3f8f86)"}
+            fill={outOfOrder ? "var(--color-ember-500)" : "var(--color-glass-600)"}
           >
             <title>{`${p.angleDeg} deg → ${p.volumeMl} mL${outOfOrder ? " (angle not ascending)" : ""}`}</title>
           </circle>

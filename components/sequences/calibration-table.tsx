@@ -33,17 +33,17 @@ export function CalibrationTable({ control, register, errors }: Props) {
   return (
     <section aria-labelledby="rig-calibration" className="flex flex-col gap-3">
       <div>
-        <h2 id="rig-calibration" className="text-base font-semibold">
+        <h2 id="rig-calibration" className="text-base font-semibold text-ink-900">
           Bag calibration
         </h2>
-        <p className="text-sm text-black/60">
+        <p className="text-sm text-ink-500">
           Volume the bag displaces at each arm angle, measured on the bench. Ascending angle, starting at 0 deg, 0 mL.
         </p>
       </div>
       <div className="flex flex-col gap-6 lg:flex-row lg:items-start">
         <table className="text-sm">
           <thead>
-            <tr className="text-left text-black/60">
+            <tr className="text-left text-ink-500">
               <th className="px-2 py-1 font-medium">#</th>
               <th className="px-2 py-1 font-medium">Arm angle (deg)</th>
               <th className="px-2 py-1 font-medium">Bag volume (mL)</th>
@@ -56,19 +56,19 @@ export function CalibrationTable({ control, register, errors }: Props) {
             {fields.map((field, index) => {
               const rowErrors = errors.bagCalibration?.[index];
               return (
-                <tr key={field.id} className="border-t border-black/10">
-                  <td className="px-2 py-1 text-black/50 tabular-nums">{index + 1}</td>
+                <tr key={field.id} className="border-t border-line">
+                  <td className="px-2 py-1 text-ink-400 tabular-nums">{index + 1}</td>
                   <td className="px-2 py-1">
                     <input
                       aria-label={`Angle of point ${index + 1}`}
                       type="number"
                       step="any"
                       aria-invalid={rowErrors?.angleDeg ? true : undefined}
-                      className="w-24 rounded border border-black/15 bg-white px-2 py-0.5 font-mono tabular-nums disabled:bg-black/5"
+                      className="w-24 h-8 rounded-md border border-line bg-surface px-2 font-mono text-sm tabular-nums text-ink-900 focus:border-glass-600 focus:outline-none focus:ring-2 focus:ring-glass-200 disabled:bg-ink-50 aria-[invalid=true]:border-danger-600"
                       {...register(`bagCalibration.${index}.angleDeg`, { valueAsNumber: true })}
                     />
                     {rowErrors?.angleDeg?.message ? (
-                      <div role="alert" className="text-xs text-red-700">
+                      <div role="alert" className="text-xs text-danger-700">
                         {rowErrors.angleDeg.message}
                       </div>
                     ) : null}
@@ -79,11 +79,11 @@ export function CalibrationTable({ control, register, errors }: Props) {
                       type="number"
                       step="any"
                       aria-invalid={rowErrors?.volumeMl ? true : undefined}
-                      className="w-24 rounded border border-black/15 bg-white px-2 py-0.5 font-mono tabular-nums disabled:bg-black/5"
+                      className="w-24 h-8 rounded-md border border-line bg-surface px-2 font-mono text-sm tabular-nums text-ink-900 focus:border-glass-600 focus:outline-none focus:ring-2 focus:ring-glass-200 disabled:bg-ink-50 aria-[invalid=true]:border-danger-600"
                       {...register(`bagCalibration.${index}.volumeMl`, { valueAsNumber: true })}
                     />
                     {rowErrors?.volumeMl?.message ? (
-                      <div role="alert" className="text-xs text-red-700">
+                      <div role="alert" className="text-xs text-danger-700">
                         {rowErrors.volumeMl.message}
                       </div>
                     ) : null}
@@ -92,7 +92,7 @@ export function CalibrationTable({ control, register, errors }: Props) {
                     <button
                       type="button"
                       onClick={() => addAfter(index)}
-                      className="rounded px-2 text-xs text-black/70 hover:bg-black/5"
+                      className="rounded px-2 text-xs text-ink-600 hover:bg-ink-100"
                       aria-label={`Add a point after point ${index + 1}`}
                     >
                       + row
@@ -101,7 +101,7 @@ export function CalibrationTable({ control, register, errors }: Props) {
                       type="button"
                       onClick={() => remove(index)}
                       disabled={fields.length <= 2}
-                      className="rounded px-2 text-xs text-black/70 hover:bg-black/5 disabled:opacity-30"
+                      className="rounded px-2 text-xs text-ink-600 hover:bg-ink-100 disabled:opacity-30"
                       aria-label={`Remove point ${index + 1}`}
                     >
                       remove
@@ -117,7 +117,7 @@ export function CalibrationTable({ control, register, errors }: Props) {
         />
       </div>
       {tableError ? (
-        <p role="alert" className="text-sm text-red-700">
+        <p role="alert" className="text-sm text-danger-700">
           {tableError}
         </p>
       ) : null}

@@ -9,7 +9,10 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import { rigSchema, type Rig, type RigInput } from "@/lib/sim/types";
 import { RIG_FIELD_GROUPS, type RigField } from "./rig-fields";
 import { CalibrationTable } from "./calibration-table";
-import { sendJson } from "./fetch-json";
+import { formatTime } from "./format";
+import { apiFetch, ApiClientError } from "@/components/ui/api-client";
+import { Button } from "@/components/ui/button";
+import { Alert } from "@/components/ui/alert";
 
 interface Props {
   projectId: string;
@@ -47,20 +50,22 @@ export function RigForm({ projectId, rig, updatedAt, canEdit }: Props) {
 
   async function save(values: Rig) {
     setStatus({ kind: "saving" });
-    const result = await sendJson<{ rig: Rig; updatedAt: string }>(`/api/projects/${projectId}/rig`, "PUT", {
-      rig: values,
-    });
-    if (!result.ok) {
-      for (const [field, messages] of Object.entries(result.fields ?? {})) {
-        const path = field.replace(/^rig\./, "") as FieldPath<RigInput>;
-        setError(path, { message: messages[0] });
+    try {
+      const saved = await apiFetch<{ rig: Rig; updatedAt: string }>(`/api/projects/${projectId}/rig`, {
+        method: "PUT",
+        body: { rig: values },
+      });
+      reset(saved.rig);
+      setSavedAt(saved.updatedAt);
+      setStatus({ kind: "saved", at: saved.updatedAt });
+    } catch (err) {
+      if (err instanceof ApiClientError) {
+        for (const [field, messages] of Object.entries(err.fields)) {
+          setError(field.replace(/^rig\./, "") as FieldPath<RigInput>, { message: messages[0] });
+        }
       }
-      setStatus({ kind: "error", message: result.error });
-      return;
+      setStatus({ kind: "error", message: err instanceof Error ? err.message : "The profile was not saved." });
     }
-    reset(result.data.rig);
-    setSavedAt(result.data.updatedAt);
-    setStatus({ kind: "saved", at: result.data.updatedAt });
   }
 
   function numberInput(field: RigField) {
@@ -68,7 +73,7 @@ export function RigForm({ projectId, rig, updatedAt, canEdit }: Props) {
     const id = `rig-${field.path.replace(/\./g, "-")}`;
     return (
       <div key={field.path} className="flex flex-col gap-1">
-        <label htmlFor={id} className="text-sm font-medium">
+        <label htmlFor={id} className="text-sm font-medium text-ink-800">
           {field.label}
         </label>
         <div className="flex items-center gap-2">
@@ -79,14 +84,14 @@ export function RigForm({ projectId, rig, updatedAt, canEdit }: Props) {
             inputMode="decimal"
             aria-invalid={message ? true : undefined}
             aria-describedby={message ? `${id}-error` : undefined}
-            className="w-32 rounded border border-black/15 bg-white px-2 py-1 font-mono text-sm tabular-nums disabled:bg-black/5"
+            className="w-32 h-9 rounded-md border border-line bg-surface px-2 font-mono text-sm tabular-nums text-ink-900 focus:border-glass-600 focus:outline-none focus:ring-2 focus:ring-glass-200 disabled:bg-ink-50 aria-[invalid=true]:border-danger-600"
             {...register(field.path, { valueAsNumber: true })}
           />
-          <span className="text-xs text-black/60">{field.unit}</span>
+          <span className="text-xs text-ink-500">{field.unit}</span>
         </div>
-        {field.hint ? <span className="text-xs text-black/50">{field.hint}</span> : null}
+        {field.hint ? <span className="text-xs text-ink-400">{field.hint}</span> : null}
         {message ? (
-          <span id={`${id}-error`} role="alert" className="text-xs text-red-700">
+          <span id={`${id}-error`} role="alert" className="text-xs text-danger-700">
             {message}
           </span>
         ) : null}
@@ -95,19 +100,24 @@ export function RigForm({ projectId, rig, updatedAt, canEdit }: Props) {
   }
 
   return (
-    <form onSubmit={handleSubmit(save)} className="flex flex-col gap-8" noValidate>
+    <form onSubmit={handleSubmit(save)} className="flex flex-col gap-8" noValidate aria-label="Rig profile">
+      {status.kind === "error" ? (
+        <Alert tone="error" title="The rig profile was not saved">
+          {status.message}
+        </Alert>
+      ) : null}
       <fieldset disabled={!canEdit || status.kind === "saving"} className="flex flex-col gap-8">
         <div className="flex flex-col gap-1">
-          <label htmlFor="rig-name" className="text-sm font-medium">
+          <label htmlFor="rig-name" className="text-sm font-medium text-ink-800">
             Profile name
           </label>
           <input
             id="rig-name"
-            className="w-72 rounded border border-black/15 bg-white px-2 py-1 text-sm disabled:bg-black/5"
+            className="w-72 h-9 rounded-md border border-line bg-surface px-2 text-sm text-ink-900 focus:border-glass-600 focus:outline-none focus:ring-2 focus:ring-glass-200 disabled:bg-ink-50"
             {...register("name")}
           />
           {errorAt(formState.errors, "name") ? (
-            <span role="alert" className="text-xs text-red-700">
+            <span role="alert" className="text-xs text-danger-700">
               {errorAt(formState.errors, "name")}
             </span>
           ) : null}
@@ -116,21 +126,21 @@ export function RigForm({ projectId, rig, updatedAt, canEdit }: Props) {
         {RIG_FIELD_GROUPS.map((group) => (
           <section key={group.title} aria-labelledby={`rig-group-${group.title}`} className="flex flex-col gap-3">
             <div>
-              <h2 id={`rig-group-${group.title}`} className="text-base font-semibold">
+              <h2 id={`rig-group-${group.title}`} className="text-base font-semibold text-ink-900">
                 {group.title}
               </h2>
-              <p className="text-sm text-black/60">{group.description}</p>
+              <p className="text-sm text-ink-500">{group.description}</p>
             </div>
             <div className="grid grid-cols-1 gap-4 sm:grid-cols-2 lg:grid-cols-3">
               {group.fields.map(numberInput)}
               {group.title === "Circuit" ? (
                 <div className="flex flex-col gap-1">
-                  <label htmlFor="rig-circuit-leak-kind" className="text-sm font-medium">
+                  <label htmlFor="rig-circuit-leak-kind" className="text-sm font-medium text-ink-800">
                     Leak model
                   </label>
                   <select
                     id="rig-circuit-leak-kind"
-                    className="w-40 rounded border border-black/15 bg-white px-2 py-1 text-sm disabled:bg-black/5"
+                    className="w-40 h-9 rounded-md border border-line bg-surface px-2 text-sm text-ink-900 focus:border-glass-600 focus:outline-none focus:ring-2 focus:ring-glass-200 disabled:bg-ink-50"
                     {...register("circuit.leak.kind")}
                   >
                     <option value="none">none</option>
@@ -141,7 +151,7 @@ export function RigForm({ projectId, rig, updatedAt, canEdit }: Props) {
               ) : null}
               {group.title === "Valves" ? (
                 <div className="flex flex-col gap-1">
-                  <span className="text-sm font-medium">PEEP valve</span>
+                  <span className="text-sm font-medium text-ink-800">PEEP valve</span>
                   <label className="flex items-center gap-2 text-sm">
                     <input
                       type="checkbox"
@@ -161,14 +171,14 @@ export function RigForm({ projectId, rig, updatedAt, canEdit }: Props) {
                         aria-label="PEEP valve setting"
                         type="number"
                         step="any"
-                        className="w-32 rounded border border-black/15 bg-white px-2 py-1 font-mono text-sm disabled:bg-black/5"
+                        className="w-32 h-9 rounded-md border border-line bg-surface px-2 font-mono text-sm text-ink-900 disabled:bg-ink-50"
                         {...register("peepValveCmH2O", { valueAsNumber: true })}
                       />
-                      <span className="text-xs text-black/60">cmH2O</span>
+                      <span className="text-xs text-ink-500">cmH2O</span>
                     </div>
                   )}
                   {errorAt(formState.errors, "peepValveCmH2O") ? (
-                    <span role="alert" className="text-xs text-red-700">
+                    <span role="alert" className="text-xs text-danger-700">
                       {errorAt(formState.errors, "peepValveCmH2O")}
                     </span>
                   ) : null}
@@ -183,24 +193,19 @@ export function RigForm({ projectId, rig, updatedAt, canEdit }: Props) {
 
       <div className="flex items-center gap-4">
         {canEdit ? (
-          <button
-            type="submit"
-            disabled={status.kind === "saving" || !formState.isDirty}
-            className="rounded bg-[var(--color-ink,#1c2b33)] px-4 py-2 text-sm font-medium text-white disabled:opacity-40"
-          >
-            {status.kind === "saving" ? "Saving…" : "Save rig profile"}
-          </button>
+          <Button type="submit" busy={status.kind === "saving"} busyLabel="Saving…" disabled={!formState.isDirty}>
+            Save rig profile
+          </Button>
         ) : (
-          <p className="text-sm text-black/60">You can read this profile; engineers and admins change it.</p>
+          <p className="text-sm text-ink-500">You can read this profile; engineers and admins change it.</p>
         )}
         <p aria-live="polite" className="text-sm">
-          {status.kind === "error" ? <span className="text-red-700">{status.message}</span> : null}
-          {status.kind === "saved" ? <span className="text-black/60">Saved.</span> : null}
+          {status.kind === "saved" ? <span className="text-ink-500">Saved.</span> : null}
           {status.kind !== "saved" && savedAt ? (
-            <span className="text-black/50">Last changed {new Date(savedAt).toLocaleString()}</span>
+            <span className="text-ink-400">Last changed {formatTime(savedAt)}</span>
           ) : null}
           {!savedAt && status.kind === "idle" ? (
-            <span className="text-black/50">Default profile: not saved for this project yet.</span>
+            <span className="text-ink-400">Default profile: not saved for this project yet.</span>
           ) : null}
         </p>
       </div>

@@ -10,25 +10,9 @@ import { and, desc, eq, max, sql } from "drizzle-orm";
 import type { Db } from "@/db";
 import { auditLog, revisions, sequences, users } from "@/db/schema";
 import { sequenceDefinition, sequenceLayout, type SequenceDefinition, type SequenceLayout } from "@/machines/schema";
+import type { RevisionDetail, RevisionSummary } from "@/lib/sequences/types";
 
-export interface RevisionAuthor {
-  id: string | null;
-  name: string;
-}
-
-export interface RevisionSummary {
-  id: string;
-  number: number;
-  message: string;
-  hash: string;
-  createdAt: string;
-  author: RevisionAuthor;
-}
-
-export interface RevisionDetail extends RevisionSummary {
-  definition: SequenceDefinition;
-  layout: SequenceLayout;
-}
+export type { RevisionDetail, RevisionSummary };
 
 /** Shown when the author's account was deleted (author_id set null). */
 const FORMER_USER = "former user";

@@ -10,21 +10,10 @@ import type { Db } from "@/db";
 import { auditLog, revisions, sequences, users, type SequenceStatus } from "@/db/schema";
 import type { SessionUser } from "@/lib/auth/types";
 import type { SequenceDefinition, SequenceLayout } from "@/machines/schema";
+import type { SequenceListItem } from "@/lib/sequences/types";
 import { visibleProjectCondition } from "./sequences-access";
 
-export interface SequenceListItem {
-  id: string;
-  name: string;
-  status: SequenceStatus;
-  updatedAt: string;
-  latestRevision: {
-    number: number;
-    hash: string;
-    createdAt: string;
-    message: string;
-    author: { id: string | null; name: string };
-  } | null;
-}
+export type { SequenceListItem };
 
 const latest = alias(revisions, "latest");
 

@@ -4,13 +4,11 @@
  */
 import "server-only";
 import type { Db } from "@/db";
-import { getRevision, type RevisionDetail } from "@/db/queries/revisions";
+import { getRevision } from "@/db/queries/revisions";
 import { runStaticChecks } from "@/machines/checks";
-import type { Problem } from "@/machines/checks/types";
+import type { RevisionView } from "./types";
 
-export interface RevisionView extends RevisionDetail {
-  problems: Problem[];
-}
+export type { RevisionView };
 
 export async function revisionView(db: Db, sequenceId: string, number: number): Promise<RevisionView | null> {
   const revision = await getRevision(db, sequenceId, number);

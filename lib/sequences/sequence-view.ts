@@ -8,18 +8,9 @@ import type { Db } from "@/db";
 import type { VisibleSequence } from "@/db/queries/sequences-access";
 import { latestRevisionNumber } from "@/db/queries/revisions";
 import { can } from "@/lib/auth/roles";
-import type { SequenceStatusValue } from "@/lib/validation/sequences";
+import type { SequenceView } from "./types";
 
-export interface SequenceView {
-  id: string;
-  projectId: string;
-  name: string;
-  status: SequenceStatusValue;
-  createdAt: string;
-  updatedAt: string;
-  latestRevision: number | null;
-  canEdit: boolean;
-}
+export type { SequenceView };
 
 export function mayEdit(sequence: Pick<VisibleSequence, "role" | "status">): boolean {
   return can(sequence.role, "sequences:edit") && sequence.status !== "archived";
