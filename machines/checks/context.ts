@@ -60,6 +60,10 @@ export function describeVia(site: Pick<TransitionSite, "via" | "key">): string {
   return `${site.via} event`;
 }
 
+export function capitalise(s: string): string {
+  return s.charAt(0).toUpperCase() + s.slice(1);
+}
+
 /** "the timer `Ti` exit from inhale to exhale" — how messages name a transition. */
 export function describeTransition(site: TransitionSite, withCondition = true): string {
   const guard = withCondition && site.transition.guard ? ` when \`${site.transition.guard.params.expr}\`` : "";
@@ -167,10 +171,4 @@ export function buildContext(definition: SequenceDefinition): CheckContext {
 /** Transitions that leave their step for an existing, different step. */
 export function exitsOf(ctx: CheckContext, step: string): TransitionSite[] {
   return ctx.transitions.filter((t) => t.step === step && t.transition.target !== step && t.transition.target in ctx.definition.machine.states);
-}
-
-/** A formula analysis without problems, so range verdicts on it are meaningful. */
-export function cleanFormula(ctx: CheckContext, expr: string): boolean {
-  const site = ctx.formulas.find((f) => f.expr === expr);
-  return site ? site.analysis.problems.length === 0 : false;
 }

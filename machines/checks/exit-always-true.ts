@@ -3,10 +3,9 @@
  * transition of a trigger's list, so an always-true (or missing) condition shadows every later entry
  * of that list; a scan exit that is always true also leaves before any timer of the step can run.
  */
-import { describeTransition, type CheckContext, type TransitionSite } from "@/machines/checks/context";
+import { capitalise, describeTransition, type CheckContext, type TransitionSite } from "@/machines/checks/context";
 import { conditionVerdict, laterInList } from "@/machines/checks/exit-conditions";
 import type { Problem } from "@/machines/checks/types";
-import { capitalise } from "@/machines/checks/unknown-target";
 
 export const EXIT_ALWAYS_TRUE = "exit-always-true";
 export const EXIT_SHADOWS_LATER = "exit-shadows-later";

@@ -2,10 +2,9 @@
  * Exit conditions that can never hold for any allowed setting value (e.g. `tStep < 0`, or
  * `PEEP > 30` with PEEP limited to 0..20): the exit is dead. A warning, since the sequence still runs.
  */
-import { describeTransition, type CheckContext } from "@/machines/checks/context";
+import { capitalise, describeTransition, type CheckContext } from "@/machines/checks/context";
 import { conditionVerdict } from "@/machines/checks/exit-conditions";
 import type { Problem } from "@/machines/checks/types";
-import { capitalise } from "@/machines/checks/unknown-target";
 
 export const EXIT_NEVER_TRUE = "exit-never-true";
 

@@ -3,7 +3,7 @@
  * identifiers, and XState would fail at creation time with a message about state nodes, not steps.
  */
 import type { CheckContext } from "@/machines/checks/context";
-import { describeTransition } from "@/machines/checks/context";
+import { capitalise, describeTransition } from "@/machines/checks/context";
 import type { Problem } from "@/machines/checks/types";
 
 export const UNKNOWN_TARGET = "unknown-target";
@@ -31,8 +31,4 @@ export function checkUnknownTargets(ctx: CheckContext): Problem[] {
     }
   }
   return problems;
-}
-
-export function capitalise(s: string): string {
-  return s.charAt(0).toUpperCase() + s.slice(1);
 }
