@@ -45,9 +45,12 @@ export async function openDatabase(options: OpenOptions): Promise<DbHandle> {
     const location = options.databaseUrl.replace(/\/\/[^@/]*@/, "//***@");
     return { kind: "postgres", db: driverDb as unknown as Db, driverDb, location, close: () => pool.end() };
   }
-  const dataDir = path.resolve(options.dataDir ?? "./data/pglite");
+  // turbopackIgnore: the data dir is chosen at run time and must not be traced into the build output.
+  const dataDir = path.resolve(/*turbopackIgnore: true*/ options.dataDir ?? "./data/pglite");
   fs.mkdirSync(path.dirname(dataDir), { recursive: true });
   const release = options.noLock ? () => {} : acquireDataDirLock(dataDir);
+  // Next's own SIGINT/SIGTERM handlers may exit before our async close runs: drop the lock on any exit.
+  process.once("exit", release);
   try {
     const { PGlite } = await import("@electric-sql/pglite");
     const { drizzle } = await import("drizzle-orm/pglite");

@@ -19,7 +19,7 @@ export class DataDirLockedError extends Error {
 }
 
 export function lockPathFor(dataDir: string): string {
-  return `${path.resolve(dataDir)}.lock`;
+  return `${path.resolve(/*turbopackIgnore: true*/ dataDir)}.lock`;
 }
 
 export function isProcessAlive(pid: number): boolean {
