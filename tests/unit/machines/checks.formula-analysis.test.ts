@@ -11,8 +11,10 @@ import {
   guardVerdict,
   rangeEnvironment,
   sameDimension,
+  KNOWN_FUNCTIONS,
   type InferredDimension,
 } from "@/machines/formula-analysis";
+import { FORMULA_FUNCTIONS } from "@/machines/formula";
 import type { Setting } from "@/machines/schema";
 
 const settings: Record<string, Setting> = {
@@ -29,6 +31,12 @@ const scope = formulaScope(settings);
 const dimOf = (expr: string): InferredDimension => analyseFormula(expr, scope).dimension;
 const kinds = (expr: string): string[] => analyseFormula(expr, scope).problems.map((p) => p.kind);
 const same = (a: InferredDimension, b: InferredDimension): boolean => a !== "unknown" && b !== "unknown" && sameDimension(a, b);
+
+describe("functions", () => {
+  it("are exactly the ones the engine's restricted formula instance allows", () => {
+    expect([...KNOWN_FUNCTIONS].sort()).toEqual([...FORMULA_FUNCTIONS].sort());
+  });
+});
 
 describe("names", () => {
   it("lists symbols without function names, once each, in order", () => {
