@@ -1,12 +1,13 @@
 import type { Alarm, Breath } from "@/lib/sim/types";
 import { type EventPriority, PRIORITY_LABELS, type RunEvent, buildEventList } from "./lib/events";
 import { formatNumber } from "./lib/format";
+import { PANEL } from "./panel";
 
 /** IEC 60601-1-8 priority colours (high red, medium yellow, low cyan), always with the priority in words. */
 const PRIORITY_CLASSES: Record<EventPriority, string> = {
-  high: "bg-red-600 text-white",
-  medium: "bg-yellow-300 text-slate-900",
-  low: "bg-cyan-200 text-slate-900",
+  high: "bg-alarm-high text-white",
+  medium: "bg-alarm-medium text-ink-950",
+  low: "bg-alarm-low text-ink-950",
 };
 
 interface AlarmListProps {
@@ -21,12 +22,12 @@ interface AlarmListProps {
 export function AlarmList({ alarms, breaths, onJump, activeId }: AlarmListProps) {
   const events = buildEventList(alarms, breaths);
   return (
-    <section aria-labelledby="run-events-heading" data-testid="alarm-list" className="rounded-md border border-slate-200 bg-white p-3">
-      <h2 id="run-events-heading" className="mb-2 text-sm font-semibold text-slate-800">
-        Alarms and events <span className="font-normal text-slate-500">({events.length})</span>
+    <section aria-labelledby="run-events-heading" data-testid="alarm-list" className={`${PANEL} p-3`}>
+      <h2 id="run-events-heading" className="mb-2 text-sm font-semibold text-ink-800">
+        Alarms and events <span className="font-normal text-ink-500">({events.length})</span>
       </h2>
       {events.length === 0 ? (
-        <p className="text-xs text-slate-500">No alarms or asynchrony events in this run.</p>
+        <p className="text-xs text-ink-500">No alarms or asynchrony events in this run.</p>
       ) : (
         <ol className="max-h-72 overflow-y-auto text-xs">
           {events.map((event) => (
@@ -38,19 +39,19 @@ export function AlarmList({ alarms, breaths, onJump, activeId }: AlarmListProps)
                 data-testid="alarm-row"
                 data-t={event.t}
                 className={
-                  "flex w-full items-baseline gap-2 rounded px-1 py-1 text-left hover:bg-teal-50 focus-visible:outline focus-visible:outline-2 focus-visible:outline-teal-600 " +
-                  (event.id === activeId ? "bg-teal-50" : "")
+                  "flex w-full items-baseline gap-2 rounded px-1 py-1 text-left hover:bg-glass-50 " +
+                  (event.id === activeId ? "bg-glass-50" : "")
                 }
               >
-                <span className="w-16 shrink-0 text-right tabular-nums text-slate-600">{formatNumber(event.t, 2)} s</span>
+                <span className="w-16 shrink-0 text-right tabular-nums text-ink-600">{formatNumber(event.t, 2)} s</span>
                 {event.priority ? (
                   <span className={`shrink-0 rounded px-1 text-[10px] font-semibold uppercase ${PRIORITY_CLASSES[event.priority]}`}>
                     {PRIORITY_LABELS[event.priority]}
                   </span>
                 ) : (
-                  <span className="shrink-0 rounded border border-slate-300 px-1 text-[10px] uppercase text-slate-600">Event</span>
+                  <span className="shrink-0 rounded border border-ink-300 px-1 text-[10px] uppercase text-ink-600">Event</span>
                 )}
-                <span className="text-slate-800">{event.message}</span>
+                <span className="text-ink-800">{event.message}</span>
               </button>
             </li>
           ))}

@@ -10,6 +10,7 @@ import { loopPoints } from "./lib/loop";
 import { breathSpan } from "./lib/time-window";
 import { LoopPlot } from "./loop-plot";
 import { useWaveform } from "./use-waveform";
+import { PANEL } from "./panel";
 
 const LOOP_SIGNALS = ["paw", "flow", "volume"] as const;
 const LOOP_POINTS = 1000;
@@ -37,15 +38,15 @@ export function BreathLoops({ runId, breaths, durationS, selected, onSelect }: B
   const fv = loopPoints(signals?.volume, signals?.flow);
   const breath = breaths[selected];
   return (
-    <section aria-labelledby="loops-heading" data-testid="breath-loops" className="rounded-md border border-slate-200 bg-white p-3">
+    <section aria-labelledby="loops-heading" data-testid="breath-loops" className={`${PANEL} p-3`}>
       <div className="mb-2 flex flex-wrap items-center justify-between gap-2">
-        <h2 id="loops-heading" className="text-sm font-semibold text-slate-800">
+        <h2 id="loops-heading" className="text-sm font-semibold text-ink-800">
           Loops
         </h2>
-        <label className="flex items-center gap-1 text-xs text-slate-600">
+        <label className="flex items-center gap-1 text-xs text-ink-600">
           Breath
           <select
-            className="rounded border border-slate-300 bg-white px-1 py-0.5 text-xs"
+            className="rounded border border-ink-300 bg-surface px-1 py-0.5 text-xs"
             value={selected}
             onChange={(event) => onSelect(Number(event.target.value))}
             data-testid="loop-breath-select"
@@ -59,13 +60,13 @@ export function BreathLoops({ runId, breaths, durationS, selected, onSelect }: B
         </label>
       </div>
       {breath ? (
-        <p className="mb-2 text-[11px] text-slate-500" data-testid="loop-breath-info">
+        <p className="mb-2 text-[11px] text-ink-500" data-testid="loop-breath-info">
           Breath {breath.index}: {formatNumber(span?.from, 2)}–{formatNumber(span?.to, 2)} s, Vti {formatNumber(breath.vti, 0)} mL, PIP{" "}
           {formatNumber(breath.pip, 1)} cmH2O
         </p>
       ) : null}
       {query.isError ? (
-        <p role="alert" className="text-xs text-red-700">
+        <p role="alert" className="text-xs text-danger-700">
           Could not load this breath: {query.error.message}
         </p>
       ) : (

@@ -16,6 +16,8 @@ import type { Breath } from "@/lib/sim/types";
 import { BREATH_COLUMNS, breathsToCsv, displayCell } from "./lib/breath-columns";
 import { downloadText } from "./lib/download";
 import { TriggerGlyph } from "./trigger-glyph";
+import { PANEL } from "./panel";
+import { buttonClasses } from "@/components/ui/button";
 
 interface BreathTableProps {
   breaths: readonly Breath[];
@@ -34,7 +36,7 @@ const columns: ColumnDef<Breath>[] = BREATH_COLUMNS.map((column) => ({
   header: () => (
     <span className="inline-flex flex-col leading-tight">
       <span>{column.label}</span>
-      {column.unit ? <span className="text-[10px] font-normal text-slate-500">{column.unit}</span> : null}
+      {column.unit ? <span className="text-[10px] font-normal text-ink-500">{column.unit}</span> : null}
     </span>
   ),
   cell: ({ row }) =>
@@ -80,24 +82,24 @@ export function BreathTable({ breaths, selected, onSelect, csvName }: BreathTabl
   const download = () => downloadText(csvName, breathsToCsv(rows.map((r) => r.original)));
 
   return (
-    <section aria-labelledby="breath-table-heading" data-testid="breath-table" className="rounded-md border border-slate-200 bg-white">
+    <section aria-labelledby="breath-table-heading" data-testid="breath-table" className={PANEL}>
       <div className="flex items-center justify-between gap-2 px-3 py-2">
-        <h2 id="breath-table-heading" className="text-sm font-semibold text-slate-800">
-          Breaths <span className="font-normal text-slate-500" data-testid="breath-count">({breaths.length})</span>
+        <h2 id="breath-table-heading" className="text-sm font-semibold text-ink-800">
+          Breaths <span className="font-normal text-ink-500" data-testid="breath-count">({breaths.length})</span>
         </h2>
         <button
           type="button"
           onClick={download}
           disabled={breaths.length === 0}
           data-testid="breath-csv-download"
-          className="rounded border border-slate-300 px-2 py-1 text-xs text-slate-700 hover:border-teal-600 hover:text-teal-800 disabled:opacity-40"
+          className={buttonClasses("secondary", "sm")}
         >
           Download CSV
         </button>
       </div>
       <div className="max-h-96 overflow-auto">
         <table className="w-full border-collapse text-xs tabular-nums">
-          <thead className="sticky top-0 z-10 bg-slate-50">
+          <thead className="sticky top-0 z-10 bg-ink-50">
             {table.getHeaderGroups().map((group) => (
               <tr key={group.id}>
                 {group.headers.map((header) => {
@@ -108,12 +110,12 @@ export function BreathTable({ breaths, selected, onSelect, csvName }: BreathTabl
                       key={header.id}
                       scope="col"
                       aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none"}
-                      className={`border-b border-slate-200 px-2 py-1 font-medium text-slate-700 ${ALIGN[align]}`}
+                      className={`border-b border-line px-2 py-1 font-medium text-ink-700 ${ALIGN[align]}`}
                     >
                       <button
                         type="button"
                         onClick={header.column.getToggleSortingHandler()}
-                        className="inline-flex items-end gap-1 hover:text-teal-800"
+                        className="inline-flex items-end gap-1 hover:text-glass-800"
                         data-testid={`sort-${header.column.id}`}
                       >
                         {flexRender(header.column.columnDef.header, header.getContext())}
@@ -146,12 +148,12 @@ export function BreathTable({ breaths, selected, onSelect, csvName }: BreathTabl
                     }
                   }}
                   className={
-                    "cursor-pointer border-b border-slate-100 hover:bg-teal-50 focus-visible:outline focus-visible:outline-2 focus-visible:outline-teal-600 " +
-                    (chosen ? "bg-orange-50" : "")
+                    "cursor-pointer border-b border-ink-100 hover:bg-glass-50 " +
+                    (chosen ? "bg-ember-50" : "")
                   }
                 >
                   {row.getVisibleCells().map((cell) => (
-                    <td key={cell.id} className={`px-2 py-0.5 text-slate-800 ${ALIGN[alignOf(cell.column.columnDef.meta)]}`}>
+                    <td key={cell.id} className={`px-2 py-0.5 text-ink-800 ${ALIGN[alignOf(cell.column.columnDef.meta)]}`}>
                       {flexRender(cell.column.columnDef.cell, cell.getContext())}
                     </td>
                   ))}

@@ -31,29 +31,29 @@ export function LoopPlot({ title, points, xLabel, yLabel, stroke, testId }: Loop
   const yd = tickDigits(yTicks);
   return (
     <figure className="m-0" data-testid={testId} data-points={points.length}>
-      <figcaption className="mb-1 text-xs font-medium text-slate-700">{title}</figcaption>
+      <figcaption className="mb-1 text-xs font-medium text-ink-700">{title}</figcaption>
       <svg viewBox={`0 0 ${W} ${H}`} className="h-auto w-full" role="img" aria-label={`${title}: ${yLabel} against ${xLabel}`}>
-        <rect x={M.left} y={M.top} width={W - M.left - M.right} height={H - M.top - M.bottom} fill="none" stroke="#e2e8f0" />
+        <rect x={M.left} y={M.top} width={W - M.left - M.right} height={H - M.top - M.bottom} fill="none" className="stroke-line" />
         {xTicks.map((t) => (
           <g key={`x${t}`}>
-            <line x1={x(t)} x2={x(t)} y1={M.top} y2={H - M.bottom} stroke={t === 0 ? "#94a3b8" : "#eef2f5"} />
-            <text x={x(t)} y={H - M.bottom + 12} fontSize="9" textAnchor="middle" fill="#51646f">
+            <line x1={x(t)} x2={x(t)} y1={M.top} y2={H - M.bottom} className={t === 0 ? "stroke-ink-400" : "stroke-ink-100"} />
+            <text x={x(t)} y={H - M.bottom + 12} fontSize="9" textAnchor="middle" className="fill-ink-500">
               {formatNumber(t, xd)}
             </text>
           </g>
         ))}
         {yTicks.map((t) => (
           <g key={`y${t}`}>
-            <line x1={M.left} x2={W - M.right} y1={y(t)} y2={y(t)} stroke={t === 0 ? "#94a3b8" : "#eef2f5"} />
-            <text x={M.left - 4} y={y(t) + 3} fontSize="9" textAnchor="end" fill="#51646f">
+            <line x1={M.left} x2={W - M.right} y1={y(t)} y2={y(t)} className={t === 0 ? "stroke-ink-400" : "stroke-ink-100"} />
+            <text x={M.left - 4} y={y(t) + 3} fontSize="9" textAnchor="end" className="fill-ink-500">
               {formatNumber(t, yd)}
             </text>
           </g>
         ))}
-        <text x={(M.left + W - M.right) / 2} y={H - 4} fontSize="10" textAnchor="middle" fill="#15232d">
+        <text x={(M.left + W - M.right) / 2} y={H - 4} fontSize="10" textAnchor="middle" className="fill-ink-900">
           {xLabel}
         </text>
-        <text x={10} y={(M.top + H - M.bottom) / 2} fontSize="10" textAnchor="middle" fill="#15232d" transform={`rotate(-90 10 ${(M.top + H - M.bottom) / 2})`}>
+        <text x={10} y={(M.top + H - M.bottom) / 2} fontSize="10" textAnchor="middle" className="fill-ink-900" transform={`rotate(-90 10 ${(M.top + H - M.bottom) / 2})`}>
           {yLabel}
         </text>
         {points.length > 1 ? (

@@ -8,7 +8,6 @@ import { useQueries } from "@tanstack/react-query";
 import { CompareOverlay } from "./charts/compare-overlay";
 import { type RunDetail, fetchRun, isFinished } from "./lib/api";
 import { formatNumber } from "./lib/format";
-import { RunCaution } from "./run-header";
 import { runQueryKey } from "./run-view";
 import { SummaryDiffTable } from "./summary-diff-table";
 
@@ -22,15 +21,15 @@ function RunBadge({ which, run }: { which: "A" | "B"; run: RunDetail }) {
   return (
     <div className="flex items-baseline gap-2 text-sm" data-testid={`compare-run-${which.toLowerCase()}`}>
       <span
-        className={`inline-flex w-14 shrink-0 items-center gap-1 text-xs font-semibold ${which === "A" ? "text-[#1d4a5e]" : "text-[#c8642c]"}`}
+        className={`inline-flex w-14 shrink-0 items-center gap-1 text-xs font-semibold ${which === "A" ? "text-ink-800" : "text-ember-600"}`}
       >
         <svg width="22" height="6" aria-hidden="true">
           <line x1="0" y1="3" x2="22" y2="3" stroke="currentColor" strokeWidth="2" strokeDasharray={which === "B" ? "6 4" : undefined} />
         </svg>
         {which}
       </span>
-      <span className="text-slate-900">{runLabel(run)}</span>
-      <span className="text-xs text-slate-500">
+      <span className="text-ink-900">{runLabel(run)}</span>
+      <span className="text-xs text-ink-500">
         {formatNumber(run.durationS, 0)} s · {run.status}
       </span>
     </div>
@@ -55,25 +54,25 @@ export function RunCompare({ aId, bId }: { aId: string; bId: string }) {
   return (
     <section className="flex flex-col gap-4" data-testid="run-compare" data-state={bothDone ? "ready" : "loading"}>
       <header className="flex flex-col gap-1">
-        <h1 className="text-lg font-semibold text-slate-900">Compare runs</h1>
+        <h1 className="text-lg font-semibold text-ink-900">Compare runs</h1>
         {a ? <RunBadge which="A" run={a} /> : null}
         {b ? <RunBadge which="B" run={b} /> : null}
       </header>
       {error ? (
-        <p role="alert" className="rounded-md border border-red-200 bg-red-50 p-3 text-sm text-red-800">
+        <p role="alert" className="rounded-md border border-danger-600/30 bg-danger-100 p-3 text-sm text-danger-700">
           Could not load a run: {error.message}
         </p>
       ) : null}
-      {!error && (!a || !b) ? <p className="text-sm text-slate-500">Loading runs…</p> : null}
+      {!error && (!a || !b) ? <p className="text-sm text-ink-500">Loading runs…</p> : null}
       {a && b && !bothDone ? (
-        <p className="rounded-md border border-slate-200 bg-slate-50 p-3 text-sm text-slate-700" data-testid="compare-not-ready">
+        <p className="rounded-md border border-line bg-ink-50 p-3 text-sm text-ink-700" data-testid="compare-not-ready">
           Both runs must have finished to compare them (A: {a.status}, B: {b.status}).
         </p>
       ) : null}
       {a && b && bothDone ? (
         <>
           {a.durationS !== b.durationS ? (
-            <p className="text-xs text-slate-500">
+            <p className="text-xs text-ink-500">
               The runs differ in length ({formatNumber(a.durationS, 0)} s and {formatNumber(b.durationS, 0)} s); the shorter trace ends early.
             </p>
           ) : null}
@@ -81,7 +80,6 @@ export function RunCompare({ aId, bId }: { aId: string; bId: string }) {
           {a.summary && b.summary ? <SummaryDiffTable a={a.summary} b={b.summary} labelA={runLabel(a)} labelB={runLabel(b)} /> : null}
         </>
       ) : null}
-      <RunCaution />
     </section>
   );
 }

@@ -17,7 +17,7 @@ import { type RunDetail, fetchRun, isFinished } from "./lib/api";
 import type { RunEvent } from "./lib/events";
 import { stepNamesOf } from "./lib/steps";
 import { type TimeWindow, breathAtTime, breathWindow, fullWindow, windowAround } from "./lib/time-window";
-import { RunCaution, RunHeader } from "./run-header";
+import { RunHeader } from "./run-header";
 import { RunProgress } from "./run-progress";
 import { SummaryPanel } from "./summary-panel";
 
@@ -47,30 +47,29 @@ export function RunView({ runId }: { runId: string }) {
   return (
     <section className="flex flex-col gap-4" data-testid="run-view" data-run-id={runId} data-status={run?.status ?? "loading"}>
       {query.isPending ? (
-        <p className="text-sm text-slate-500" data-testid="run-loading">
+        <p className="text-sm text-ink-500" data-testid="run-loading">
           Loading run…
         </p>
       ) : null}
       {query.isError && !run ? (
-        <p role="alert" className="rounded-md border border-red-200 bg-red-50 p-3 text-sm text-red-800" data-testid="run-load-error">
+        <p role="alert" className="rounded-md border border-danger-600/30 bg-danger-100 p-3 text-sm text-danger-700" data-testid="run-load-error">
           Could not load this run: {query.error.message}
         </p>
       ) : null}
       {run ? <RunHeader run={run} /> : null}
       {run && (run.status === "queued" || run.status === "running") ? <RunProgress run={run} /> : null}
       {run?.status === "failed" ? (
-        <div role="alert" className="rounded-md border border-red-200 bg-red-50 p-3 text-sm text-red-800" data-testid="run-error">
+        <div role="alert" className="rounded-md border border-danger-600/30 bg-danger-100 p-3 text-sm text-danger-700" data-testid="run-error">
           <p className="font-medium">The simulation failed.</p>
           <p className="mt-1 whitespace-pre-wrap font-mono text-xs">{run.error ?? "No error message was stored."}</p>
         </div>
       ) : null}
       {run?.status === "cancelled" ? (
-        <p className="rounded-md border border-slate-200 bg-slate-50 p-3 text-sm text-slate-700" data-testid="run-cancelled">
+        <p className="rounded-md border border-line bg-ink-50 p-3 text-sm text-ink-700" data-testid="run-cancelled">
           This run was cancelled{run.error ? `: ${run.error}` : "."}
         </p>
       ) : null}
       {run?.status === "done" ? <RunResults run={run} /> : null}
-      <RunCaution />
     </section>
   );
 }

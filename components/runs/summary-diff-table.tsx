@@ -2,6 +2,7 @@ import type { Summary } from "@/lib/sim/types";
 import { formatSigned } from "./lib/format";
 import { diffSummaries } from "./lib/summary-diff";
 import { fieldValue } from "./summary-panel";
+import { PANEL } from "./panel";
 
 interface SummaryDiffTableProps {
   a: Summary;
@@ -14,13 +15,13 @@ interface SummaryDiffTableProps {
 export function SummaryDiffTable({ a, b, labelA, labelB }: SummaryDiffTableProps) {
   const rows = diffSummaries(a, b);
   return (
-    <section aria-labelledby="summary-diff-heading" data-testid="summary-diff-table" className="rounded-md border border-slate-200 bg-white">
-      <h2 id="summary-diff-heading" className="px-3 pt-2 text-sm font-semibold text-slate-800">
+    <section aria-labelledby="summary-diff-heading" data-testid="summary-diff-table" className={PANEL}>
+      <h2 id="summary-diff-heading" className="px-3 pt-2 text-sm font-semibold text-ink-800">
         Summary differences
       </h2>
       <div className="overflow-x-auto">
         <table className="w-full border-collapse text-xs tabular-nums">
-          <thead className="bg-slate-50 text-slate-700">
+          <thead className="bg-ink-50 text-ink-700">
             <tr>
               <th scope="col" className="px-2 py-1 text-left font-medium">
                 Figure
@@ -46,17 +47,17 @@ export function SummaryDiffTable({ a, b, labelA, labelB }: SummaryDiffTableProps
             {rows.map((row) => {
               const changed = row.delta !== null && Number(row.delta.toFixed(row.field.digits)) !== 0;
               return (
-                <tr key={row.field.key} data-testid={`diff-${row.field.key}`} className="border-b border-slate-100">
-                  <th scope="row" className="px-2 py-0.5 text-left font-normal text-slate-700">
+                <tr key={row.field.key} data-testid={`diff-${row.field.key}`} className="border-b border-ink-100">
+                  <th scope="row" className="px-2 py-0.5 text-left font-normal text-ink-700">
                     {row.field.label}
                   </th>
-                  <td className="px-2 py-0.5 text-slate-500">{row.field.unit}</td>
-                  <td className="px-2 py-0.5 text-right text-slate-900">{fieldValue(row.field, row.a)}</td>
-                  <td className="px-2 py-0.5 text-right text-slate-900">{fieldValue(row.field, row.b)}</td>
-                  <td className={`px-2 py-0.5 text-right ${changed ? "font-semibold text-slate-900" : "text-slate-500"}`} data-testid={`diff-${row.field.key}-delta`}>
+                  <td className="px-2 py-0.5 text-ink-500">{row.field.unit}</td>
+                  <td className="px-2 py-0.5 text-right text-ink-900">{fieldValue(row.field, row.a)}</td>
+                  <td className="px-2 py-0.5 text-right text-ink-900">{fieldValue(row.field, row.b)}</td>
+                  <td className={`px-2 py-0.5 text-right ${changed ? "font-semibold text-ink-900" : "text-ink-500"}`} data-testid={`diff-${row.field.key}-delta`}>
                     {formatSigned(row.delta, row.field.digits)}
                   </td>
-                  <td className="px-2 py-0.5 text-right text-slate-500">{row.percent === null ? "—" : `${formatSigned(row.percent, 1)}`}</td>
+                  <td className="px-2 py-0.5 text-right text-ink-500">{row.percent === null ? "—" : `${formatSigned(row.percent, 1)}`}</td>
                 </tr>
               );
             })}

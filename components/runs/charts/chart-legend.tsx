@@ -11,7 +11,7 @@ export function ChartLegend({ stepNames }: { stepNames: readonly string[] }) {
   // Server and client render the same swatches; the canvas may pick up app tokens later.
   const theme = DEFAULT_CHART_THEME;
   return (
-    <div className="flex flex-wrap items-center gap-x-4 gap-y-1 text-xs text-slate-600" data-testid="chart-legend">
+    <div className="flex flex-wrap items-center gap-x-4 gap-y-1 text-xs text-ink-600" data-testid="chart-legend">
       {TRIGGERS.map((trigger) => (
         <span key={trigger} className="inline-flex items-center gap-1">
           <TriggerGlyph trigger={trigger} />
@@ -27,11 +27,11 @@ export function ChartLegend({ stepNames }: { stepNames: readonly string[] }) {
         </svg>
         Trigger latency (effort onset → inhale)
       </span>
-      {stepNames.length > 0 ? <span className="text-slate-400">Steps:</span> : null}
+      {stepNames.length > 0 ? <span className="text-ink-400">Steps:</span> : null}
       {stepNames.map((name) => (
         <span key={name} className="inline-flex items-center gap-1">
           <span
-            className="inline-block h-3 w-4 rounded-sm border border-slate-300"
+            className="inline-block h-3 w-4 rounded-sm border border-ink-300"
             style={{ background: theme.stepTones[stepToneIndex(stepNames, name, theme.stepTones.length)] }}
             aria-hidden="true"
           />

@@ -1,7 +1,7 @@
 /**
- * Colours of the run charts. Canvas drawing cannot use Tailwind classes, so the charts read the app's CSS
- * custom properties when they exist and fall back to these values (ink and sea-glass tones, one warm
- * accent). Alarm colours follow the IEC 60601-1-8 priorities; nothing here copies a ventilator's palette.
+ * Colours of the run charts. Canvas drawing cannot use Tailwind classes, so the charts read the palette's CSS
+ * custom properties (app/globals.css: ink, glass, ember) and fall back to the same values. Traces are told
+ * apart by their chart and label, not by a monitor's colour code.
  */
 export interface ChartTheme {
   ink: string;
@@ -17,24 +17,25 @@ export interface ChartTheme {
   font: string;
 }
 
+/** Fallbacks: the values of app/globals.css's palette (ink, glass, ember), so SSR and tests draw the same. */
 export const DEFAULT_CHART_THEME: ChartTheme = {
-  ink: "#15232d",
-  inkSoft: "#51646f",
-  grid: "rgba(21, 35, 45, 0.08)",
-  accent: "#c8642c",
-  traces: { paw: "#1d4a5e", flow: "#2f7f73", volume: "#4a5a8a", pmus: "#7a5c7e" },
-  compareA: "#1d4a5e",
-  compareB: "#c8642c",
+  ink: "#13232d", // ink-900
+  inkSoft: "#5f7884", // ink-500
+  grid: "rgba(19, 35, 45, 0.08)",
+  accent: "#d7812e", // ember-500
+  traces: { paw: "#1d323e", flow: "#2d6a63", volume: "#4a5a8a", pmus: "#6b5a7e" },
+  compareA: "#1d323e", // ink-800
+  compareB: "#b9651f", // ember-600
   stepTones: [
-    "rgba(127, 183, 168, 0.16)",
-    "rgba(29, 74, 94, 0.07)",
-    "rgba(166, 207, 196, 0.24)",
-    "rgba(74, 90, 138, 0.08)",
-    "rgba(200, 228, 220, 0.32)",
-    "rgba(93, 143, 145, 0.12)",
+    "rgba(162, 211, 200, 0.30)", // glass-300
+    "rgba(210, 221, 225, 0.45)", // ink-200
+    "rgba(201, 231, 223, 0.55)", // glass-200
+    "rgba(175, 192, 199, 0.28)", // ink-300
+    "rgba(118, 185, 171, 0.20)", // glass-400
+    "rgba(231, 238, 240, 0.80)", // ink-100
   ],
-  stepLabel: "rgba(21, 35, 45, 0.55)",
-  marker: "rgba(21, 35, 45, 0.45)",
+  stepLabel: "rgba(19, 35, 45, 0.55)",
+  marker: "rgba(19, 35, 45, 0.45)",
   font: "11px ui-sans-serif, system-ui, sans-serif",
 };
 
@@ -43,21 +44,23 @@ function cssVar(style: CSSStyleDeclaration | null, name: string, fallback: strin
   return value ? value : fallback;
 }
 
-/** Reads the theme at chart creation (client only). */
+/** Reads the theme at chart creation (client only): the app's palette tokens when present, and its font. */
 export function readChartTheme(): ChartTheme {
   const style = typeof window === "undefined" ? null : getComputedStyle(document.documentElement);
+  const bodyFont = typeof document === "undefined" || !document.body ? "" : getComputedStyle(document.body).fontFamily;
   return {
     ...DEFAULT_CHART_THEME,
-    ink: cssVar(style, "--color-ink", DEFAULT_CHART_THEME.ink),
-    inkSoft: cssVar(style, "--color-ink-soft", DEFAULT_CHART_THEME.inkSoft),
-    accent: cssVar(style, "--color-accent", DEFAULT_CHART_THEME.accent),
-    compareB: cssVar(style, "--color-accent", DEFAULT_CHART_THEME.compareB),
+    ink: cssVar(style, "--color-ink-900", DEFAULT_CHART_THEME.ink),
+    inkSoft: cssVar(style, "--color-ink-500", DEFAULT_CHART_THEME.inkSoft),
+    accent: cssVar(style, "--color-ember-500", DEFAULT_CHART_THEME.accent),
+    compareA: cssVar(style, "--color-ink-800", DEFAULT_CHART_THEME.compareA),
+    compareB: cssVar(style, "--color-ember-600", DEFAULT_CHART_THEME.compareB),
     traces: {
-      paw: cssVar(style, "--color-trace-pressure", DEFAULT_CHART_THEME.traces.paw),
-      flow: cssVar(style, "--color-trace-flow", DEFAULT_CHART_THEME.traces.flow),
-      volume: cssVar(style, "--color-trace-volume", DEFAULT_CHART_THEME.traces.volume),
-      pmus: cssVar(style, "--color-trace-effort", DEFAULT_CHART_THEME.traces.pmus),
+      ...DEFAULT_CHART_THEME.traces,
+      paw: cssVar(style, "--color-ink-800", DEFAULT_CHART_THEME.traces.paw),
+      flow: cssVar(style, "--color-glass-700", DEFAULT_CHART_THEME.traces.flow),
     },
+    font: bodyFont ? `11px ${bodyFont}` : DEFAULT_CHART_THEME.font,
   };
 }
 

@@ -87,18 +87,18 @@ export function CompareOverlay({ aId, bId, durationS }: CompareOverlayProps) {
       <WindowControls view={view} durationS={durationS} onChange={setView} loading={qa.isFetching || qb.isFetching} />
       <div
         ref={wrapperRef}
-        className="runs-charts rounded-md border border-slate-200 bg-white p-1"
+        className="runs-charts rounded-md border border-line bg-surface p-1"
         data-testid="compare-overlay"
         data-state={error ? "error" : ready ? "ready" : "loading"}
         data-from={view.from.toFixed(3)}
         data-to={view.to.toFixed(3)}
       >
         {error ? (
-          <p role="alert" className="p-4 text-sm text-red-700">
+          <p role="alert" className="p-4 text-sm text-danger-700">
             Could not load the waveforms: {error.message}
           </p>
         ) : null}
-        {!data && !error ? <p className="p-4 text-sm text-slate-500">Loading waveforms…</p> : null}
+        {!data && !error ? <p className="p-4 text-sm text-ink-500">Loading waveforms…</p> : null}
         {data
           ? COMPARE_SIGNALS.map((key, i) => (
               <UplotChart

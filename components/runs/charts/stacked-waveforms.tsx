@@ -149,7 +149,7 @@ export function StackedWaveforms({ runId, durationS, view, onViewChange, overlay
       <WindowControls view={view} durationS={durationS} onChange={onViewChange} loading={query.isFetching} />
       <div
         ref={wrapperRef}
-        className="runs-charts rounded-md border border-slate-200 bg-white p-1 focus-visible:outline focus-visible:outline-2 focus-visible:outline-teal-600"
+        className="runs-charts rounded-md border border-line bg-surface p-1"
         data-testid="waveform-charts"
         data-state={state}
         data-from={view.from.toFixed(3)}
@@ -162,7 +162,7 @@ export function StackedWaveforms({ runId, durationS, view, onViewChange, overlay
         onKeyDown={onKeyDown}
       >
         {query.isError ? (
-          <p role="alert" className="p-4 text-sm text-red-700">
+          <p role="alert" className="p-4 text-sm text-danger-700">
             Could not load the waveforms: {query.error.message}{" "}
             <button type="button" className="underline" onClick={() => void query.refetch()}>
               Retry
@@ -170,7 +170,7 @@ export function StackedWaveforms({ runId, durationS, view, onViewChange, overlay
           </p>
         ) : null}
         {!chartData && !query.isError ? (
-          <p className="p-4 text-sm text-slate-500" data-testid="waveform-loading">
+          <p className="p-4 text-sm text-ink-500" data-testid="waveform-loading">
             Loading waveforms…
           </p>
         ) : null}
@@ -188,7 +188,7 @@ export function StackedWaveforms({ runId, durationS, view, onViewChange, overlay
                   onInstance={onInstance[i]}
                 />
               ) : (
-                <p key={spec.key} className="px-4 py-2 text-xs text-slate-500" data-testid={`chart-${spec.key}-missing`}>
+                <p key={spec.key} className="px-4 py-2 text-xs text-ink-500" data-testid={`chart-${spec.key}-missing`}>
                   {spec.title} ({spec.unit}) was not recorded in this run.
                 </p>
               ),

@@ -1,6 +1,7 @@
 "use client";
 import { formatNumber } from "../lib/format";
 import { type TimeWindow, fullWindow, panWindow, zoomWindow } from "../lib/time-window";
+import { buttonClasses } from "@/components/ui/button";
 
 interface WindowControlsProps {
   view: TimeWindow;
@@ -9,9 +10,7 @@ interface WindowControlsProps {
   loading?: boolean;
 }
 
-const button =
-  "rounded border border-slate-300 bg-white px-2 py-1 text-xs text-slate-700 hover:border-teal-600 hover:text-teal-800 " +
-  "focus-visible:outline focus-visible:outline-2 focus-visible:outline-teal-600 disabled:opacity-40";
+const button = buttonClasses("secondary", "sm", "h-7 px-2 text-xs");
 
 /** Zoom and pan buttons for the charts; drag across a chart to zoom into a range, double-click for the whole run. */
 export function WindowControls({ view, durationS, onChange, loading }: WindowControlsProps) {
@@ -36,11 +35,11 @@ export function WindowControls({ view, durationS, onChange, loading }: WindowCon
       <button type="button" className={button} onClick={() => onChange(whole)} disabled={isWhole} data-testid="zoom-reset">
         Whole run
       </button>
-      <span className="text-xs tabular-nums text-slate-500" data-testid="window-range">
+      <span className="text-xs tabular-nums text-ink-500" data-testid="window-range">
         {formatNumber(view.from, 2)}–{formatNumber(view.to, 2)} s
-        {loading ? <span className="ml-2 text-slate-400">loading…</span> : null}
+        {loading ? <span className="ml-2 text-ink-400">loading…</span> : null}
       </span>
-      <span className="ml-auto text-xs text-slate-500">Drag across a chart to zoom; double-click for the whole run.</span>
+      <span className="ml-auto text-xs text-ink-500">Drag across a chart to zoom; double-click for the whole run.</span>
     </div>
   );
 }

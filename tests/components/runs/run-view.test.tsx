@@ -47,7 +47,6 @@ describe("RunView", () => {
     expect(screen.getByTestId("run-view")).toHaveAttribute("data-status", "done");
     expect(screen.getAllByTestId("breath-row")).toHaveLength(3);
     expect(screen.getByTestId("waveform-csv-link")).toHaveAttribute("href", "/api/runs/run-a/waveform.csv");
-    expect(screen.getByTestId("run-caution")).toHaveTextContent("not a medical device");
     expect(screen.getByRole("heading", { level: 1 })).toHaveTextContent("Assisted volume rev 3 on Normal lungs");
 
     // The whole run is fetched first, all four signals.
