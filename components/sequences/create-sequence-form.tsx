@@ -5,7 +5,7 @@
  */
 import { useState } from "react";
 import { useRouter } from "next/navigation";
-import { useForm } from "react-hook-form";
+import { useForm, useWatch } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { z } from "zod";
 import { sequenceName, templateId } from "@/lib/validation/sequences";
@@ -34,8 +34,8 @@ export function CreateSequenceForm({ projectId, templates, defaultTemplate, onCa
     resolver: zodResolver(formSchema),
     defaultValues: { name: "", template: defaultTemplate ?? "" },
   });
-  const { register, handleSubmit, formState, setError: setFieldError, watch } = form;
-  const chosen = watch("template");
+  const { register, handleSubmit, formState, setError: setFieldError, control } = form;
+  const chosen = useWatch({ control, name: "template" });
 
   async function create(values: FormValues) {
     setError(null);

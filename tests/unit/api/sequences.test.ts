@@ -206,6 +206,15 @@ describe("PATCH /api/sequences/:id", () => {
     expect(empty.status).toBe(400);
   });
 
+  it("answers 409 when 'draft' would undo a review state rather than unarchive", async () => {
+    const id = await newSequence(t);
+    await t.db.update(sequences).set({ status: "approved" }).where(eq(sequences.id, id));
+    const res = await t.call(patchRoute, { method: "PATCH", as: "engineer", params: { id }, body: { status: "draft" } });
+    expect(res.status).toBe(409);
+    const archive = await t.call(patchRoute, { method: "PATCH", as: "engineer", params: { id }, body: { status: "archived" } });
+    expect(archive.status).toBe(200);
+  });
+
   it.each(["clinician", "viewer"] as const)("answers 403 to a %s", async (role) => {
     const id = await newSequence(t);
     const res = await t.call(patchRoute, { method: "PATCH", as: role, params: { id }, body: { name: "Mine now" } });
