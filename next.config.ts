@@ -4,8 +4,6 @@ const nextConfig: NextConfig = {
   // PGlite ships WASM + data files and argon2 a native binary: keep both out of the bundle.
   serverExternalPackages: ["@electric-sql/pglite", "@node-rs/argon2"],
   poweredByHeader: false,
-  // The browser suite builds into its own directory so it never clobbers a running `next dev`.
-  distDir: process.env.TIDEWRIGHT_DIST_DIR || ".next",
   // `npm test` type-checks the whole project first; the e2e build skips repeating it.
   typescript: { ignoreBuildErrors: process.env.TIDEWRIGHT_SKIP_BUILD_TYPECHECK === "1" },
 };
