@@ -12,9 +12,10 @@
 import "server-only";
 import { count } from "drizzle-orm";
 import type { Db } from "./index";
-import { projectMembers, projects, users } from "./schema";
+import { auditLog, projectMembers, projects, users } from "./schema";
 import { hashPassword } from "@/lib/auth/password";
 import type { Role } from "@/lib/auth/roles";
+import { seedPatientCasesStep } from "./seed-cases";
 
 export const DEMO_PASSWORD = "tidewright-demo";
 
@@ -43,7 +44,7 @@ export interface SeedStep {
 }
 
 /** Reference data for every installation (idempotent). */
-export const baseSeedSteps: SeedStep[] = [];
+export const baseSeedSteps: SeedStep[] = [seedPatientCasesStep];
 
 /** Demo data that hangs off the demo team (sequences, rig profile, runs …), in order. */
 export const demoSeedSteps: SeedStep[] = [];
@@ -81,6 +82,13 @@ export async function seedDemoTeam(db: Db): Promise<DemoTeam> {
       .values({ name: DEMO_SCENARIO.programme, description: DEMO_SCENARIO.description, createdBy: byRole.engineer.id })
       .returning();
     await tx.insert(projectMembers).values(rows.map((r) => ({ projectId: project.id, userId: r.id })));
+    await tx.insert(auditLog).values({
+      actorId: byRole.engineer.id,
+      action: "project.create",
+      targetType: "project",
+      targetId: project.id,
+      details: { name: project.name, seeded: true },
+    });
     return { projectId: project.id, users: byRole };
   });
 }
@@ -103,7 +111,7 @@ export async function seedDatabase(db: Db, options: { demo: boolean }): Promise<
   return team;
 }
 
-/** Called once at start-up (db/index.ts) unless TIDEWRIGHT_DEMO=0 … see seedDatabase. */
+/** Called at every start-up (db/index.ts); does nothing once the database has users. */
 export async function seedIfEmpty(db: Db, options: { demo: boolean }): Promise<DemoTeam | null> {
   const [{ n }] = await db.select({ n: count() }).from(users);
   if (n > 0) return null;

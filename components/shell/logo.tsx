@@ -13,7 +13,7 @@ export function LogoMark({ size = 28, className }: { size?: number; className?: 
       className={className}
       xmlns="http://www.w3.org/2000/svg"
     >
-      <rect x="1" y="1" width="30" height="30" rx="8" fill="#13232d" />
+      <rect x="1" y="1" width="30" height="30" rx="8" fill="#13232d" stroke="#2b4552" strokeWidth="1" />
       <path d="M4.5 21.5 H8 C10 21.5 10.4 10.5 13 10.5 H17.5 C19.6 10.5 20.4 21.5 23.5 21.5 H27.5" fill="none" stroke="#76b9ab" strokeWidth="2.6" strokeLinecap="round" strokeLinejoin="round" />
       <path d="M4.5 25.5 H27.5" stroke="#2b4552" strokeWidth="1.4" strokeLinecap="round" />
       <circle cx="8" cy="21.5" r="2.3" fill="#d7812e" />
