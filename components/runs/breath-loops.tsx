@@ -70,7 +70,7 @@ export function BreathLoops({ runId, breaths, durationS, selected, onSelect }: B
           Could not load this breath: {query.error.message}
         </p>
       ) : (
-        <div className={`grid grid-cols-1 gap-2 sm:grid-cols-2 lg:grid-cols-1 xl:grid-cols-2 ${stale ? "opacity-50" : ""}`} data-state={query.data && !stale ? "ready" : "loading"} data-testid="loops-body">
+        <div className={`grid grid-cols-1 gap-3 sm:grid-cols-2 xl:grid-cols-1 ${stale ? "opacity-50" : ""}`} data-state={query.data && !stale ? "ready" : "loading"} data-testid="loops-body">
           <LoopPlot
             title="Pressure–volume"
             points={stale ? [] : pv}

@@ -149,7 +149,7 @@ export function BreathTable({ breaths, selected, onSelect, csvName }: BreathTabl
                   }}
                   className={
                     "cursor-pointer border-b border-ink-100 hover:bg-glass-50 " +
-                    (chosen ? "bg-ember-50" : "")
+                    (chosen ? "bg-ember-100 shadow-[inset_3px_0_0_var(--color-ember-500)]" : "")
                   }
                 >
                   {row.getVisibleCells().map((cell) => (

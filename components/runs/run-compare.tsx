@@ -6,7 +6,7 @@
  */
 import { useQueries } from "@tanstack/react-query";
 import { CompareOverlay } from "./charts/compare-overlay";
-import { type RunDetail, fetchRun, isFinished } from "./lib/api";
+import { type RunDetail, caseName, fetchRun, isFinished } from "./lib/api";
 import { formatNumber } from "./lib/format";
 import { runQueryKey } from "./run-view";
 import { SummaryDiffTable } from "./summary-diff-table";
@@ -14,7 +14,7 @@ import { SummaryDiffTable } from "./summary-diff-table";
 const POLL_MS = 500;
 
 export function runLabel(run: RunDetail): string {
-  return `${run.revision.sequenceName} rev ${run.revision.number} on ${run.case.name}`;
+  return `${run.revision.sequenceName} rev ${run.revision.number} on ${caseName(run)}`;
 }
 
 function RunBadge({ which, run }: { which: "A" | "B"; run: RunDetail }) {

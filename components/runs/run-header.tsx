@@ -1,4 +1,4 @@
-import { type RunDetail, waveformCsvUrl } from "./lib/api";
+import { type RunDetail, caseName, waveformCsvUrl } from "./lib/api";
 import { formatNumber } from "./lib/format";
 import { buttonClasses } from "@/components/ui/button";
 
@@ -17,7 +17,7 @@ export function RunHeader({ run }: { run: RunDetail }) {
     <header className="flex flex-wrap items-start justify-between gap-3" data-testid="run-header">
       <div>
         <h1 className="text-lg font-semibold text-ink-900">
-          {run.revision.sequenceName} <span className="font-normal text-ink-500">rev {run.revision.number}</span> on {run.case.name}
+          {run.revision.sequenceName} <span className="font-normal text-ink-500">rev {run.revision.number}</span> on {caseName(run)}
         </h1>
         <p className="text-xs text-ink-600">
           <span data-testid="run-status" data-status={run.status}>

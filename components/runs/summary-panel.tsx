@@ -28,7 +28,10 @@ export function SummaryPanel({ summary }: { summary: Summary }) {
                 const severe = field.key === "asynchronyIndex" && raw !== null && raw > SEVERE_ASYNCHRONY_PCT;
                 return (
                   <div key={field.key} className="flex items-baseline justify-between gap-2 border-b border-ink-100 py-0.5" data-testid={`summary-${field.key}`}>
-                    <dt className="text-xs text-ink-600">{field.label}</dt>
+                    <dt className="text-xs text-ink-600">
+                      {field.label}
+                      {severe ? <span className="ml-1 rounded bg-danger-100 px-1 text-[10px] font-semibold text-danger-700">severe</span> : null}
+                    </dt>
                     <dd className="text-right text-sm tabular-nums text-ink-900">
                       <span data-testid={`summary-${field.key}-value`} className={severe ? "font-semibold text-danger-700" : undefined}>
                         {text}
@@ -36,7 +39,6 @@ export function SummaryPanel({ summary }: { summary: Summary }) {
                       <span className="text-[11px] text-ink-500" data-testid={`summary-${field.key}-unit`}>
                         {field.unit}
                       </span>
-                      {severe ? <span className="ml-1 text-[11px] font-medium text-danger-700">severe</span> : null}
                     </dd>
                   </div>
                 );

@@ -43,10 +43,10 @@ function joined(a: WaveformWindow | undefined, b: WaveformWindow | undefined): u
 export function CompareOverlay({ aId, bId, durationS }: CompareOverlayProps) {
   const wrapperRef = useRef<HTMLDivElement>(null);
   const width = useElementWidth(wrapperRef, 900);
-  const points = pointsForWidth(width - 80);
+  const points = pointsForWidth((width ?? 900) - 80);
   const [view, setView] = useState<TimeWindow>(() => fullWindow(durationS));
-  const qa = useWaveform(aId, view, points, COMPARE_SIGNALS);
-  const qb = useWaveform(bId, view, points, COMPARE_SIGNALS);
+  const qa = useWaveform(aId, view, points, COMPARE_SIGNALS, width !== null);
+  const qb = useWaveform(bId, view, points, COMPARE_SIGNALS, width !== null);
   const syncKey = `runs-compare-${useId()}`;
 
   const stateRef = useRef({ view, durationS });

@@ -29,9 +29,10 @@ export function latencyMarkersPlugin(
         ctx.textBaseline = "bottom";
         ctx.textAlign = "center";
         const y = top + 20 * ratio;
-        for (const breath of overlay().breaths) {
-          if (breath.trigger !== "patient" || breath.effortOnset === null) continue;
-          if (breath.start < range.min || breath.effortOnset > range.max) continue;
+        const breaths = overlay().breaths;
+        breaths.forEach((breath, position) => {
+          if (breath.trigger !== "patient" || breath.effortOnset === null) return;
+          if (breath.start < range.min || breath.effortOnset > range.max) return;
           const x0 = u.valToPos(breath.effortOnset, "x", true);
           const x1 = u.valToPos(breath.start, "x", true);
           if (options.shade) {
@@ -51,12 +52,24 @@ export function latencyMarkersPlugin(
           ctx.stroke();
           if (options.labels && breath.latencyMs !== null) {
             const label = `${Math.round(breath.latencyMs)} ms`;
-            if (x1 - x0 > ctx.measureText(label).width + 4 * ratio) {
-              ctx.fillStyle = theme.accent;
+            const textWidth = ctx.measureText(label).width;
+            ctx.fillStyle = theme.accent;
+            if (x1 - x0 > textWidth + 4 * ratio) {
               ctx.fillText(label, (x0 + x1) / 2, y - 3 * ratio);
+            } else {
+              // Too short to hold its label: write it before the onset when the previous breath leaves room.
+              const previous = breaths[position - 1];
+              const room = previous ? x0 - u.valToPos(previous.start, "x", true) : Infinity;
+              if (room > textWidth + 12 * ratio) {
+                ctx.textAlign = "right";
+                ctx.textBaseline = "middle";
+                ctx.fillText(label, x0 - 5 * ratio, y);
+                ctx.textAlign = "center";
+                ctx.textBaseline = "bottom";
+              }
             }
           }
-        }
+        });
         ctx.restore();
       },
     },

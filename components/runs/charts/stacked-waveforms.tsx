@@ -57,8 +57,8 @@ function toTyped(values: readonly number[] | undefined, length: number): Float64
 export function StackedWaveforms({ runId, durationS, view, onViewChange, overlay, onPickTime }: StackedWaveformsProps) {
   const wrapperRef = useRef<HTMLDivElement>(null);
   const width = useElementWidth(wrapperRef, 900);
-  const points = pointsForWidth(width - 80);
-  const query = useWaveform(runId, view, points, SIGNALS);
+  const points = pointsForWidth((width ?? 900) - 80);
+  const query = useWaveform(runId, view, points, SIGNALS, width !== null);
   const syncKey = `runs-${useId()}`;
 
   const instances = useRef<(uPlot | null)[]>([]);

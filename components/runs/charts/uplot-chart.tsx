@@ -54,7 +54,7 @@ export function UplotChart({ makeOptions, data, height, xRange, testId, onInstan
   const chartRef = useRef<uPlot | null>(null);
   const dataRef = useRef({ data, xRange });
   const onInstanceRef = useRef(onInstance);
-  const width = useElementWidth(containerRef, 800);
+  const width = useElementWidth(containerRef, 800) ?? 800;
   const widthRef = useRef(width);
 
   useEffect(() => {
@@ -69,7 +69,7 @@ export function UplotChart({ makeOptions, data, height, xRange, testId, onInstan
     const options = makeOptions();
     const withRecorder: uPlot.Options = {
       ...options,
-      width: Math.max(100, widthRef.current),
+      width: Math.max(100, container.clientWidth || widthRef.current),
       height,
       plugins: [...(options.plugins ?? []), { hooks: { draw: recordDraw } }],
     };

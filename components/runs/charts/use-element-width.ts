@@ -2,24 +2,26 @@
 import { type RefObject, useEffect, useState } from "react";
 
 /**
- * Width of an element in CSS pixels, following resizes. jsdom has no ResizeObserver: there the first
- * measurement (or the fallback) stands.
+ * Width of an element in CSS pixels, following resizes; null until first measured (after mount), so a
+ * caller can wait for the real width before asking the server for data sized to it. An element without
+ * layout (jsdom) reports the fallback.
  */
-export function useElementWidth(ref: RefObject<HTMLElement | null>, fallback: number): number {
-  const [width, setWidth] = useState(fallback);
+export function useElementWidth(ref: RefObject<HTMLElement | null>, fallback: number): number | null {
+  const [width, setWidth] = useState<number | null>(null);
   useEffect(() => {
     const element = ref.current;
     if (!element) return;
     const measure = (value: number) => {
       if (value > 0) setWidth(Math.round(value));
     };
-    measure(element.getBoundingClientRect().width);
+    const initial = element.getBoundingClientRect().width;
+    setWidth(initial > 0 ? Math.round(initial) : fallback);
     if (typeof ResizeObserver === "undefined") return;
     const observer = new ResizeObserver((entries) => {
       for (const entry of entries) measure(entry.contentRect.width);
     });
     observer.observe(element);
     return () => observer.disconnect();
-  }, [ref]);
+  }, [ref, fallback]);
   return width;
 }

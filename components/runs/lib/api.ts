@@ -18,7 +18,8 @@ export interface RunDetail {
   createdAt: string;
   wallMs: number | null;
   revision: { id: string; number: number; sequenceId: string; sequenceName: string; projectId: string };
-  case: { id: string; name: string };
+  /** null when the case has since been deleted. */
+  case: { id: string; name: string } | null;
   summary: Summary | null;
   breaths: Breath[] | null;
   alarms: Alarm[] | null;
@@ -44,6 +45,10 @@ export interface WaveformRequest {
   to: number;
   points: number;
   signals: readonly SignalKey[];
+}
+
+export function caseName(run: Pick<RunDetail, "case">): string {
+  return run.case ? run.case.name : "a deleted case";
 }
 
 export function isFinished(status: RunStatus): boolean {

@@ -54,9 +54,12 @@ export function scaleLinear(domain: Extent, start: number, end: number): (v: num
   return (v) => start + ((v - domain.min) / span) * (end - start);
 }
 
-/** SVG path through the points in time order, closed back to the start (a loop). */
+/**
+ * SVG path through the points in time order. Left open: a breath that does not return to its start
+ * (incomplete exhalation, a leak) should show the gap, not a drawn closing segment.
+ */
 export function loopPath(points: readonly LoopPoint[], x: (v: number) => number, y: (v: number) => number): string {
   if (points.length === 0) return "";
   const parts = points.map((p, i) => `${i === 0 ? "M" : "L"}${x(p.x).toFixed(1)},${y(p.y).toFixed(1)}`);
-  return parts.join("") + "Z";
+  return parts.join("");
 }
