@@ -32,9 +32,11 @@ import { sequenceDefinition } from "@/machines/schema";
 import type { CreateRunBody, ListRunsQuery, RunRigValue, RunStatusValue, WaveformQuery } from "@/lib/validation/runs";
 import { decodeWaveforms } from "@/lib/waveform/codec";
 import { csvStream } from "@/lib/waveform/csv";
-import { waveformWindow, type WaveformWindow } from "@/lib/waveform/downsample";
+import { buildSignalIndex, waveformWindow, type MinMaxIndex, type WaveformWindow } from "@/lib/waveform/downsample";
+import { WAVEFORM_SIGNALS } from "@/lib/validation/runs";
 import { MAX_QUEUED_JOBS, PoolBusyError, simulationPool, warmSimulationPool, type JobHandle } from "./pool";
 import type { SimJob, SimOutcome } from "./protocol";
+import { runReadCache } from "./read-cache";
 import { waveformCache } from "./waveform-cache";
 
 /**
@@ -196,6 +198,16 @@ async function visibleRun(db: Db, user: SessionUser, id: string): Promise<RunRec
   return run;
 }
 
+/** visibleRun for the read endpoints, through the two-second read cache (lib/runs/read-cache.ts). */
+async function readableRun(db: Db, user: SessionUser, id: string): Promise<RunRecord> {
+  const cache = runReadCache();
+  const cached = cache.get(user.id, user.role, id);
+  if (cached) return cached;
+  const run = await visibleRun(db, user, id);
+  cache.set(user.id, user.role, run);
+  return run;
+}
+
 function parseSteps(raw: unknown): StoredSteps {
   const parsed = storedSteps.safeParse(raw);
   return parsed.success ? parsed.data : { names: [], intervals: [] };
@@ -226,7 +238,7 @@ export interface RunView {
 }
 
 export async function getRunView(db: Db, user: SessionUser, id: string): Promise<RunView> {
-  const run = await visibleRun(db, user, id);
+  const run = await readableRun(db, user, id);
   const live = liveRuns().get(id);
   let status: RunStatusValue = run.status;
   let progress = run.status === "done" ? 1 : 0;
@@ -309,14 +321,29 @@ async function loadWaveforms(db: Db, run: RunRecord): Promise<Waveforms> {
   return waveforms;
 }
 
+/** Below this many samples a plain scan is as fast as building the block index. */
+const INDEX_MIN_SAMPLES = 50_000;
+const indexes = new WeakMap<Waveforms, MinMaxIndex>();
+
+function indexOf(w: Waveforms): MinMaxIndex | undefined {
+  if (w.t.length < INDEX_MIN_SAMPLES) return undefined;
+  let index = indexes.get(w);
+  if (!index) {
+    index = {};
+    for (const s of WAVEFORM_SIGNALS) index[s] = buildSignalIndex(w[s]);
+    indexes.set(w, index);
+  }
+  return index;
+}
+
 export async function getWaveformWindow(db: Db, user: SessionUser, id: string, query: WaveformQuery): Promise<WaveformWindow> {
-  const run = await visibleRun(db, user, id);
+  const run = await readableRun(db, user, id);
   const waveforms = await loadWaveforms(db, run);
-  return waveformWindow(waveforms, parseSteps(run.steps).intervals, query);
+  return waveformWindow(waveforms, parseSteps(run.steps).intervals, query, indexOf(waveforms));
 }
 
 export async function getWaveformCsv(db: Db, user: SessionUser, id: string): Promise<Response> {
-  const run = await visibleRun(db, user, id);
+  const run = await readableRun(db, user, id);
   const waveforms = await loadWaveforms(db, run);
   const names = parseSteps(run.steps).names;
   const filename = `run-${run.revision.sequenceName.replace(/[^A-Za-z0-9_-]+/g, "-").slice(0, 60)}-r${run.revision.number}-${run.id.slice(0, 8)}.csv`;

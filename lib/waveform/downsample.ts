@@ -70,12 +70,53 @@ export function minMaxBuckets(
   start: number,
   end: number,
   buckets: number,
+  index?: SignalIndex,
 ): number[] {
   const n = end - start;
   const out = new Array<number>(buckets * 2);
+  const e: Extremes = { min: 0, iMin: 0, max: 0, iMax: 0 };
   for (let b = 0; b < buckets; b++) {
     const i0 = start + Math.floor((b * n) / buckets);
     const i1 = start + Math.floor(((b + 1) * n) / buckets);
+    rangeExtremes(series, index, i0, i1, e);
+    if (e.iMin <= e.iMax) {
+      out[2 * b] = e.min;
+      out[2 * b + 1] = e.max;
+    } else {
+      out[2 * b] = e.max;
+      out[2 * b + 1] = e.min;
+    }
+  }
+  return out;
+}
+
+/**
+ * Block min–max index: per block of BLOCK samples, the minimum and maximum of each signal and where
+ * they occur. A bucket spanning many blocks then reads the blocks instead of every sample, with the
+ * exact same result as the plain scan (first occurrence wins ties in both). Built once per cached run.
+ */
+export const INDEX_BLOCK = 64;
+
+export interface SignalIndex {
+  min: Float32Array;
+  max: Float32Array;
+  iMin: Uint32Array;
+  iMax: Uint32Array;
+}
+export type MinMaxIndex = Partial<Record<WaveformSignal, SignalIndex>>;
+
+export function buildSignalIndex(series: ArrayLike<number>): SignalIndex {
+  const n = series.length;
+  const blocks = Math.ceil(n / INDEX_BLOCK);
+  const out: SignalIndex = {
+    min: new Float32Array(blocks),
+    max: new Float32Array(blocks),
+    iMin: new Uint32Array(blocks),
+    iMax: new Uint32Array(blocks),
+  };
+  for (let b = 0; b < blocks; b++) {
+    const i0 = b * INDEX_BLOCK;
+    const i1 = Math.min(n, i0 + INDEX_BLOCK);
     let min = series[i0];
     let max = min;
     let iMin = i0;
@@ -90,15 +131,61 @@ export function minMaxBuckets(
         iMax = i;
       }
     }
-    if (iMin <= iMax) {
-      out[2 * b] = min;
-      out[2 * b + 1] = max;
-    } else {
-      out[2 * b] = max;
-      out[2 * b + 1] = min;
-    }
+    out.min[b] = min;
+    out.max[b] = max;
+    out.iMin[b] = iMin;
+    out.iMax[b] = iMax;
   }
   return out;
+}
+
+interface Extremes {
+  min: number;
+  iMin: number;
+  max: number;
+  iMax: number;
+}
+
+/** Min and max of series[i0, i1) (i1 > i0), through the index where whole blocks are covered. */
+function rangeExtremes(series: ArrayLike<number>, index: SignalIndex | undefined, i0: number, i1: number, out: Extremes): void {
+  let min = series[i0];
+  let max = min;
+  let iMin = i0;
+  let iMax = i0;
+  const scan = (a: number, b: number) => {
+    for (let i = a; i < b; i++) {
+      const v = series[i];
+      if (v < min) {
+        min = v;
+        iMin = i;
+      } else if (v > max) {
+        max = v;
+        iMax = i;
+      }
+    }
+  };
+  const firstBlock = index ? Math.ceil((i0 + 1) / INDEX_BLOCK) : 0;
+  const lastBlock = index ? Math.floor(i1 / INDEX_BLOCK) : 0; // exclusive
+  if (!index || lastBlock - firstBlock < 2) {
+    scan(i0 + 1, i1);
+  } else {
+    scan(i0 + 1, firstBlock * INDEX_BLOCK);
+    for (let b = firstBlock; b < lastBlock; b++) {
+      if (index.min[b] < min) {
+        min = index.min[b];
+        iMin = index.iMin[b];
+      }
+      if (index.max[b] > max) {
+        max = index.max[b];
+        iMax = index.iMax[b];
+      }
+    }
+    scan(lastBlock * INDEX_BLOCK, i1);
+  }
+  out.min = min;
+  out.iMin = iMin;
+  out.max = max;
+  out.iMax = iMax;
 }
 
 function copyRange(a: ArrayLike<number>, start: number, end: number): number[] {
@@ -111,6 +198,7 @@ export function waveformWindow(
   w: Waveforms,
   steps: readonly StepInterval[],
   req: WindowRequest,
+  index?: MinMaxIndex,
 ): WaveformWindow {
   const n = w.t.length;
   const tEnd = n > 0 ? w.t[n - 1] : 0;
@@ -134,7 +222,7 @@ export function waveformWindow(
       t[2 * b] = w.t[i0];
       t[2 * b + 1] = w.t[i1 - 1];
     }
-    for (const s of req.signals) signals[s] = minMaxBuckets(w[s], start, end, buckets);
+    for (const s of req.signals) signals[s] = minMaxBuckets(w[s], start, end, buckets, index?.[s]);
   }
   return { from, to, points: t.length, t, signals, steps: stepsInWindow(steps, from, to) };
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { lowerBound, stepsInWindow, upperBound, waveformWindow } from "@/lib/waveform/downsample";
+import { buildSignalIndex, lowerBound, stepsInWindow, upperBound, waveformWindow, type MinMaxIndex } from "@/lib/waveform/downsample";
 import { WAVEFORM_SIGNALS, type WaveformSignal } from "@/lib/validation/runs";
 import type { Waveforms } from "@/lib/sim/types";
 import { syntheticWaveforms } from "./fixtures";
@@ -65,6 +65,21 @@ describe("waveform window", () => {
     expect(win.steps[0].from).toBe(590);
     expect(win.steps.every((s) => s.from >= 590 && s.to <= 600 && s.to >= s.from)).toBe(true);
     expect(stepsInWindow(steps, 1.5, 2)).toEqual([{ step: "exhale", from: 1.5, to: 2 }]);
+  });
+
+  it("gives exactly the same window through the block index as by the plain scan", () => {
+    const index: MinMaxIndex = {};
+    for (const s of WAVEFORM_SIGNALS) index[s] = buildSignalIndex(w[s]);
+    let seed = 11;
+    const rand = () => ((seed = (seed * 16807) % 2147483647) / 2147483647);
+    for (let k = 0; k < 40; k++) {
+      const from = rand() * 600;
+      const to = Math.min(600, from + rand() * 600);
+      if (to <= from) continue;
+      const points = 2 + Math.floor(rand() * 3000);
+      const req = { from, to, points, signals: WAVEFORM_SIGNALS };
+      expect(waveformWindow(w, steps, req, index)).toEqual(waveformWindow(w, steps, req));
+    }
   });
 
   it("windows a 10-minute run quickly", () => {
