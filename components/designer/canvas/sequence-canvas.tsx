@@ -6,7 +6,7 @@
  * as one undoable move). Needs a ReactFlowProvider above it.
  */
 import "@xyflow/react/dist/style.css";
-import { useCallback, useMemo, useRef, useState } from "react";
+import { useCallback, useLayoutEffect, useMemo, useRef, useState } from "react";
 import {
   Background,
   BackgroundVariant,
@@ -56,7 +56,9 @@ export function SequenceCanvas(props: SequenceCanvasProps) {
   const [dragging, setDragging] = useState<Record<string, { x: number; y: number }>>({});
   // Node and edge selection changes arrive in separate callbacks within one click; chain them.
   const selectionRef = useRef(selection);
-  selectionRef.current = selection;
+  useLayoutEffect(() => {
+    selectionRef.current = selection;
+  }, [selection]);
 
   const view = useMemo(
     () => buildView({ definition, layout, selection, decorations, editable }),

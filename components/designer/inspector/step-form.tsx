@@ -61,7 +61,7 @@ export function StepForm({ name, definition, readOnly, onApplyMeta, onRename, on
             hint="used by transitions"
             error={formState.errors.name?.message}
             data-testid="step-name"
-            {...register("name", { onBlur: commitName })}
+            {...register("name", { onBlur: () => void commitName() })}
             onKeyDown={(e) => {
               if (e.key === "Enter") void commitName();
             }}

@@ -1,0 +1,274 @@
+"use client";
+/**
+ * The sequence designer: canvas in the middle, inspector at the side, live preview under the canvas,
+ * settings and problems below. The page (designer-server) renders it with the revision to start from.
+ * All edits are local until "Save revision" posts a new immutable revision.
+ */
+import { useCallback, useEffect, useMemo, useRef, useState } from "react";
+import { useRouter } from "next/navigation";
+import { ReactFlowProvider } from "@xyflow/react";
+import type { SequenceDefinition, SequenceLayout } from "@/machines/schema";
+import type { Rig } from "@/lib/sim/types";
+import { completeLayout } from "@/machines/graph";
+import { SequenceCanvas } from "./canvas/sequence-canvas";
+import type { CanvasDecorations } from "./canvas/decorations";
+import { Inspector } from "./inspector/inspector";
+import { ProblemsPanel } from "./problems/problems-panel";
+import { SettingsTable } from "./settings/settings-table";
+import { LivePreview } from "./live-preview";
+import { EditorToolbar } from "./toolbar/editor-toolbar";
+import { StatusBanner, type EditorStatus } from "./toolbar/status-banner";
+import { BottomTabs, type BottomTab } from "./bottom-tabs";
+import { useEditor } from "./model/use-editor";
+import { useEditorActions } from "./model/use-editor-actions";
+import { useShortcuts } from "./model/use-shortcuts";
+import { liveProblems, problemDecorations, selectionOfTarget, countBySeverity, type Problem } from "./model/problems";
+import { loadRevision, saveRevision } from "./model/revisions-api";
+import { definitionFileName, definitionFileText, parseDefinitionFile } from "./model/import-export";
+import { downloadText } from "./model/download";
+import type { EditorDoc } from "./model/doc";
+
+export interface SequenceEditorProps {
+  sequenceId: string;
+  projectId: string;
+  sequenceName: string;
+  revision: { number: number; definition: SequenceDefinition; layout: SequenceLayout | null; hash: string };
+  rig: Rig;
+  readOnly: boolean;
+}
+
+export function SequenceEditor(props: SequenceEditorProps) {
+  return (
+    <ReactFlowProvider>
+      <EditorBody {...props} />
+    </ReactFlowProvider>
+  );
+}
+
+function EditorBody({ sequenceId, sequenceName, revision, rig, readOnly }: SequenceEditorProps) {
+  const router = useRouter();
+  const initialDoc = useMemo<EditorDoc>(
+    () => ({ definition: revision.definition, layout: completeLayout(revision.definition, revision.layout) }),
+    // The editor owns its document after mount; a re-render of the page with a new revision does not reset it.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+    [],
+  );
+  const editor = useEditor(initialDoc);
+  const { doc, selection } = editor;
+  const rootRef = useRef<HTMLDivElement>(null);
+  const canvasBoxRef = useRef<HTMLDivElement>(null);
+  const messageRef = useRef<HTMLInputElement>(null);
+
+  const [baseRevision, setBaseRevision] = useState(revision.number);
+  const [savedDoc, setSavedDoc] = useState<EditorDoc>(initialDoc);
+  const [message, setMessage] = useState("");
+  const [status, setStatus] = useState<EditorStatus>({ kind: "idle" });
+  const [serverProblems, setServerProblems] = useState<Problem[]>([]);
+  const [tab, setTab] = useState<BottomTab>("problems");
+  const [activeStep, setActiveStep] = useState<string | null>(null);
+  const dirty = doc !== savedDoc;
+
+  const problems = useMemo(() => liveProblems(doc.definition), [doc.definition]);
+  const counts = countBySeverity(problems);
+  const decorations = useMemo<CanvasDecorations>(() => ({ ...problemDecorations(problems), activeStep }), [problems, activeStep]);
+
+  const actions = useEditorActions({ editor, canvasBoxRef, readOnly, onStatus: setStatus });
+
+  const save = useCallback(
+    async (base = baseRevision) => {
+      if (readOnly || status.kind === "saving") return;
+      setStatus({ kind: "saving" });
+      const sent = doc;
+      const outcome = await saveRevision(sequenceId, { definition: sent.definition, layout: sent.layout, message: message.trim(), baseRevision: base });
+      switch (outcome.kind) {
+        case "saved":
+          setBaseRevision(outcome.number);
+          setSavedDoc(sent);
+          setMessage("");
+          setServerProblems([]);
+          setStatus({ kind: "saved", number: outcome.number, warnings: outcome.warnings.length });
+          // The page's history list is a server component: refresh it to show the new revision.
+          router.refresh();
+          break;
+        case "stale":
+          setStatus({ kind: "stale", error: outcome.error, latestRevision: outcome.latestRevision });
+          break;
+        case "invalid":
+          setServerProblems(outcome.problems);
+          setTab("problems");
+          setStatus({ kind: "invalid", error: outcome.error, problems: outcome.problems });
+          break;
+        case "refused":
+          setStatus({ kind: "refused", error: outcome.error });
+          break;
+      }
+    },
+    [baseRevision, doc, message, readOnly, router, sequenceId, status.kind],
+  );
+
+  const loadLatest = useCallback(
+    async (n: number) => {
+      try {
+        const r = await loadRevision(sequenceId, n);
+        const loaded: EditorDoc = { definition: r.definition, layout: completeLayout(r.definition, r.layout) };
+        // An ordinary (undoable) edit: Ctrl+Z brings the engineer's own version back.
+        editor.apply(loaded);
+        setBaseRevision(r.number);
+        setSavedDoc(loaded);
+        setStatus({ kind: "loaded", number: r.number });
+      } catch (err) {
+        setStatus({ kind: "refused", error: err instanceof Error ? err.message : String(err) });
+      }
+    },
+    [editor, sequenceId],
+  );
+
+  const importText = useCallback(
+    (text: string, fileName: string) => {
+      const result = parseDefinitionFile(text);
+      if (!result.ok) {
+        setStatus({ kind: "import-failed", fileName, errors: result.errors });
+        return;
+      }
+      // Steps that keep their names keep their places; new ones are laid out by the fallback grid.
+      editor.apply({ definition: result.definition, layout: completeLayout(result.definition, doc.layout) });
+      editor.select({ steps: [], transitions: [] });
+      const c = countBySeverity(result.problems);
+      setStatus({ kind: "imported", fileName, errors: c.errors, warnings: c.warnings });
+      if (result.problems.length > 0) setTab("problems");
+    },
+    [doc.layout, editor],
+  );
+
+  const exportJson = useCallback(() => {
+    downloadText(definitionFileText(doc.definition), definitionFileName(sequenceName, dirty ? null : baseRevision));
+  }, [baseRevision, dirty, doc.definition, sequenceName]);
+
+  const pickProblem = useCallback(
+    (p: Problem) => {
+      const sel = selectionOfTarget(p.target);
+      if (!sel) {
+        setTab("settings");
+        return;
+      }
+      editor.select(sel);
+      if (sel.setting) setTab("settings");
+    },
+    [editor],
+  );
+
+  useShortcuts(rootRef, {
+    delete: readOnly ? undefined : actions.deleteSelection,
+    undo: readOnly ? undefined : editor.undo,
+    redo: readOnly ? undefined : editor.redo,
+    copy: actions.copy,
+    cut: readOnly ? undefined : actions.cut,
+    paste: readOnly ? undefined : actions.paste,
+    selectAll: actions.selectAll,
+    clear: actions.clearSelection,
+    fit: actions.fit,
+    layout: readOnly ? undefined : actions.layout,
+    save: readOnly ? undefined : () => void save(),
+  });
+
+  // Leaving with unsaved edits asks first; the browser shows its own wording.
+  useEffect(() => {
+    if (!dirty || readOnly) return;
+    const warn = (e: BeforeUnloadEvent) => e.preventDefault();
+    window.addEventListener("beforeunload", warn);
+    return () => window.removeEventListener("beforeunload", warn);
+  }, [dirty, readOnly]);
+
+  return (
+    <div
+      ref={rootRef}
+      className="flex flex-col gap-2"
+      data-testid="sequence-editor"
+      data-readonly={readOnly ? "true" : "false"}
+      data-base-revision={baseRevision}
+      data-dirty={dirty ? "true" : "false"}
+    >
+      <EditorToolbar
+        readOnly={readOnly}
+        canUndo={editor.canUndo}
+        canRedo={editor.canRedo}
+        onAddStep={actions.addStep}
+        onUndo={editor.undo}
+        onRedo={editor.redo}
+        onFit={actions.fit}
+        onLayout={actions.layout}
+        onExport={exportJson}
+        onImportText={importText}
+        baseRevision={baseRevision}
+        dirty={dirty}
+        counts={counts}
+        onShowProblems={() => setTab("problems")}
+        save={{
+          message,
+          onMessage: setMessage,
+          onSave: () => void save(),
+          saving: status.kind === "saving",
+          dirty,
+          blocking: counts.errors,
+          ref: messageRef,
+        }}
+      />
+      <StatusBanner
+        status={status}
+        onLoadLatest={(n) => void loadLatest(n)}
+        onSaveOver={(n) => void save(n)}
+        onShowProblems={() => setTab("problems")}
+        onDismiss={() => setStatus({ kind: "idle" })}
+      />
+      <div className="grid min-h-0 grid-cols-[minmax(0,1fr)_22rem] gap-2">
+        <div className="flex min-w-0 flex-col gap-2">
+          <div ref={canvasBoxRef} className="h-[58vh] min-h-[420px] overflow-hidden rounded border border-slate-300 bg-white">
+            <SequenceCanvas
+              definition={doc.definition}
+              layout={doc.layout}
+              editable={!readOnly}
+              selection={selection}
+              onSelectionChange={editor.select}
+              decorations={decorations}
+              onMoveSteps={actions.moveSteps}
+              onConnect={actions.connect}
+              label={`Steps of ${sequenceName}`}
+            />
+          </div>
+          <LivePreview definition={doc.definition} rig={rig} onActiveStep={setActiveStep} />
+        </div>
+        <div className="max-h-[calc(58vh+24rem)] overflow-hidden rounded border border-slate-300 bg-white">
+          <Inspector
+            definition={doc.definition}
+            selection={selection}
+            readOnly={readOnly}
+            formKey={`${editor.selectionSerial}:${editor.epoch}`}
+            onApplyStepMeta={actions.applyStepMeta}
+            onRenameStep={actions.renameStep}
+            onSetInitial={actions.setInitial}
+            onApplyTransition={actions.applyTransition}
+            onMoveTransition={actions.moveTransition}
+            onDeleteSelection={actions.deleteSelection}
+          />
+        </div>
+      </div>
+      <BottomTabs
+        tab={tab}
+        onTab={setTab}
+        problemCount={problems.length}
+        errorCount={counts.errors}
+        settingCount={Object.keys(doc.definition.settings).length}
+        problems={<ProblemsPanel problems={problems} serverProblems={serverProblems} onPick={pickProblem} />}
+        settings={
+          <SettingsTable
+            definition={doc.definition}
+            rig={rig}
+            readOnly={readOnly}
+            highlight={selection.setting}
+            onChange={(definition, group) => editor.apply({ ...doc, definition }, { group })}
+          />
+        }
+      />
+    </div>
+  );
+}
