@@ -5,7 +5,7 @@ import { PANEL } from "./panel";
 import { buttonClasses } from "@/components/ui/button";
 
 /** Progress of a queued or running simulation, with a cancel button. */
-export function RunProgress({ run }: { run: RunDetail }) {
+export function RunProgress({ run, canCancel = true }: { run: RunDetail; canCancel?: boolean }) {
   const queryClient = useQueryClient();
   const cancel = useMutation({
     mutationFn: () => cancelRun(run.id),
@@ -28,21 +28,23 @@ export function RunProgress({ run }: { run: RunDetail }) {
       >
         <div className="h-full bg-glass-600 transition-[width]" style={{ width: `${percent}%` }} />
       </div>
-      <div className="mt-3 flex items-center gap-3">
-        <button
-          type="button"
-          onClick={() => cancel.mutate()}
-          disabled={cancel.isPending}
-          className={buttonClasses("danger", "sm")}
-        >
-          Cancel run
-        </button>
-        {cancel.isError ? (
-          <span role="alert" className="text-xs text-danger-700">
-            {cancel.error.message}
-          </span>
-        ) : null}
-      </div>
+      {canCancel ? (
+        <div className="mt-3 flex items-center gap-3">
+          <button
+            type="button"
+            onClick={() => cancel.mutate()}
+            disabled={cancel.isPending}
+            className={buttonClasses("danger", "sm")}
+          >
+            Cancel run
+          </button>
+          {cancel.isError ? (
+            <span role="alert" className="text-xs text-danger-700">
+              {cancel.error.message}
+            </span>
+          ) : null}
+        </div>
+      ) : null}
     </div>
   );
 }

@@ -57,7 +57,7 @@ export function RunView({ runId }: { runId: string }) {
         </p>
       ) : null}
       {run ? <RunHeader run={run} /> : null}
-      {run && (run.status === "queued" || run.status === "running") ? <RunProgress run={run} /> : null}
+      {run && (run.status === "queued" || run.status === "running") ? <RunProgress run={run} canCancel={run.canRun !== false} /> : null}
       {run?.status === "failed" ? (
         <div role="alert" className="rounded-md border border-danger-600/30 bg-danger-100 p-3 text-sm text-danger-700" data-testid="run-error">
           <p className="font-medium">The simulation failed.</p>

@@ -25,6 +25,8 @@ export interface RunDetail {
   alarms: Alarm[] | null;
   stepNames: string[] | null;
   steps: StepInterval[] | null;
+  /** Whether the caller may start or cancel runs (absent: assume yes; the server checks either way). */
+  canRun?: boolean;
 }
 
 export const SIGNALS = ["paw", "flow", "volume", "pmus"] as const;
