@@ -57,6 +57,26 @@ describe("RunView", () => {
     expect(chartCalls[0].searchParams.get("to")).toBe("9");
   });
 
+  it("cancels a running run, and offers no cancel to a caller who may not run", async () => {
+    const user = userEvent.setup();
+    const fetchMock = mockFetch((url, init) => {
+      if (url.pathname === "/api/runs/run-a/cancel" && init?.method === "POST") return { body: { status: "cancelled" } };
+      if (url.pathname === "/api/runs/run-a") return { body: makeRun({ status: "running", progress: 0.1, canRun: true }) };
+      return undefined;
+    });
+    const { unmount } = renderWithQuery(<RunView runId="run-a" />);
+    await user.click(await screen.findByRole("button", { name: "Cancel run" }));
+    await waitFor(() =>
+      expect(fetchMock.mock.calls.some(([input, init]) => String(input) === "/api/runs/run-a/cancel" && init?.method === "POST")).toBe(true),
+    );
+    unmount();
+
+    mockFetch(() => ({ body: makeRun({ status: "running", progress: 0.1, canRun: false }) }));
+    renderWithQuery(<RunView runId="run-a" />);
+    await screen.findByRole("progressbar");
+    expect(screen.queryByRole("button", { name: "Cancel run" })).not.toBeInTheDocument();
+  });
+
   it("shows the engine's error when the run failed", async () => {
     serveRun([makeRun({ status: "failed", error: "zero-time loop between inhale and exhale", summary: null })]);
     renderWithQuery(<RunView runId="run-a" />);
