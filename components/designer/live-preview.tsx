@@ -83,6 +83,9 @@ export function LivePreview({ definition, rig, onActiveStep, createSimulation = 
     if (!running) return;
     let raf = 0;
     let last = performance.now();
+    // Simulated time owed to the wall clock: the engine advances by whole scans, so a frame's
+    // remainder carries over instead of being lost (16.7 ms frames on a 10 ms scan would run at 0.6×).
+    let owed = 0;
     meter.reset();
     const tick = (now: number) => {
       const dt = Math.min(now - last, MAX_FRAME_S * 1000) / 1000;
@@ -92,12 +95,14 @@ export function LivePreview({ definition, rig, onActiveStep, createSimulation = 
         const before = s.time;
         const t0 = performance.now();
         try {
-          s.advance(dt * speed);
+          owed = Math.min(owed + dt * speed, MAX_FRAME_S * speed);
+          s.advance(owed);
         } catch (err) {
           send({ type: "FAIL", error: err instanceof Error ? err.message : String(err) });
           return;
         }
         const simS = s.time - before;
+        owed -= simS;
         meter.record(now, simS / rig.scanPeriodS, performance.now() - t0, simS);
         pump(false);
       }

@@ -103,7 +103,8 @@ export function connectSteps(def: SequenceDefinition, source: string, target: st
 export function updateTransition(def: SequenceDefinition, ref: TransitionRef, spec: TransitionSpec): { def: SequenceDefinition; ref: TransitionRef } {
   const previous = getTransition(def, ref);
   if (!previous) return { def, ref };
-  const next = buildTransition(spec, previous);
+  // Only a timer's own guard carries over; a condition's guard is the condition being replaced.
+  const next = buildTransition(spec, ref.group === "after" ? previous : undefined);
   const place = placeOf(spec.trigger);
   if (place.group === ref.group && place.key === ref.key) {
     const state = def.machine.states[ref.step];
@@ -136,18 +137,6 @@ export function moveTransition(def: SequenceDefinition, ref: TransitionRef, delt
   const record = groupOf(state, ref.group);
   record[ref.key] = list;
   return { def: putState(def, ref.step, withGroup(state, ref.group, record)), ref: { ...ref, index: to } };
-}
-
-/** Retarget an edge dragged to another step (React Flow reconnect). */
-export function retargetTransition(def: SequenceDefinition, ref: TransitionRef, target: string): SequenceDefinition {
-  const t = getTransition(def, ref);
-  if (!t) return def;
-  const state = def.machine.states[ref.step];
-  const record = groupOf(state, ref.group);
-  const value = record[ref.key];
-  const next = { ...t, target };
-  record[ref.key] = Array.isArray(value) ? value.map((x, i) => (i === ref.index ? next : x)) : next;
-  return putState(def, ref.step, withGroup(state, ref.group, record));
 }
 
 /** The inspector's view of an existing transition. */
