@@ -2,6 +2,8 @@
  * Runs benchmark (issue 5 §7). Prints figures; exits non-zero only if the harness itself fails.
  *
  *   npm run bench:runs                 # BENCH_LOAD_S=10 by default (autocannon duration per load test)
+ *   BENCH_URL=http://127.0.0.1:3000 npm run bench:runs   # against a running `next start` instead
+ *     (signs in as engineer@demo.test, creates a pressure-control sequence; loopback URLs only)
  *
  * 1. POST /api/runs for a 60 s run, end to end over HTTP (wait: true → 201 after the result is stored).
  * 2. GET /api/runs/:id/waveform for a 10-minute run: cold (blob read from the database and inflated)
@@ -28,6 +30,8 @@ const HOST = "127.0.0.1";
 
 interface ServerInfo {
   port: number;
+  /** false against an external server: no cache-drop hook, so the cold window is not measured. */
+  benchHooks: boolean;
   cookie: string;
   revisionId: string;
   caseId: string;
@@ -131,7 +135,7 @@ async function serve(): Promise<void> {
 
   const ready: Ready = {
     type: "ready",
-    info: { port: address.port, cookie: `${lucia.sessionCookieName}=${session.id}`, revisionId: rev.id, caseId: isoCase.id },
+    info: { port: address.port, benchHooks: true, cookie: `${lucia.sessionCookieName}=${session.id}`, revisionId: rev.id, caseId: isoCase.id },
   };
   process.send?.(ready);
   process.on("message", (m: unknown) => {
@@ -235,8 +239,42 @@ async function load(info: ServerInfo, label: string, pathName: string, durationS
   return result.errors + result.timeouts + result.non2xx;
 }
 
+/** Sign in and make a revision on a running app (BENCH_URL), through its public API only. */
+async function externalServer(base: string): Promise<ServerInfo> {
+  const url = new URL(base);
+  if (url.hostname !== HOST) throw new Error(`BENCH_URL must be on ${HOST} (loopback only)`);
+  const origin = url.origin;
+  const json = async (res: Response) => (await res.json()) as Record<string, unknown>;
+  const signIn = await fetch(`${origin}/api/auth/sign-in`, {
+    method: "POST",
+    headers: { "content-type": "application/json", origin },
+    body: JSON.stringify({ email: "engineer@demo.test", password: "tidewright-demo" }),
+  });
+  if (!signIn.ok) throw new Error(`sign-in: ${signIn.status}`);
+  const cookie = signIn.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+  const get = async (p: string) => json(await fetch(`${origin}${p}`, { headers: { cookie } }));
+  const projectsBody = (await get("/api/projects")) as { projects: Array<{ id: string }> };
+  const seq = await json(
+    await fetch(`${origin}/api/projects/${projectsBody.projects[0].id}/sequences`, {
+      method: "POST",
+      headers: { "content-type": "application/json", origin, cookie },
+      body: JSON.stringify({ name: `Bench ${Date.now()}`, template: "pressure-control" }),
+    }),
+  );
+  const revs = (await get(`/api/sequences/${String(seq.id)}/revisions`)) as { revisions: Array<{ id: string }> };
+  const cases = (await get("/api/cases")) as { cases: Array<{ id: string; name: string }> };
+  const iso = cases.cases.find((c) => c.name === "ISO 80601-2-12 test lung, row 1") ?? cases.cases[0];
+  return { port: Number(url.port || 80), benchHooks: false, cookie, revisionId: revs.revisions[0].id, caseId: iso.id };
+}
+
 async function drive(): Promise<void> {
   const loadS = Number(process.env.BENCH_LOAD_S ?? "10");
+  if (process.env.BENCH_URL) {
+    const info = await externalServer(process.env.BENCH_URL);
+    await measure(info, loadS, `external server ${process.env.BENCH_URL}`);
+    agent.destroy();
+    return;
+  }
   const child: ChildProcess = fork(__filename, [], {
     env: { ...process.env, TIDEWRIGHT_BENCH_ROLE: "server", NODE_ENV: "production" },
     execArgv: ["--conditions=react-server", "--import", "tsx"],
@@ -246,9 +284,19 @@ async function drive(): Promise<void> {
     child.once("message", (m: Ready) => resolve(m.info));
     child.once("exit", (code) => reject(new Error(`bench server exited (${code})`)));
   });
-  let failures = 0;
   try {
-    console.log(`Tidewright runs benchmark — Node ${process.version}, ${os.availableParallelism()} CPUs, server on ${HOST}:${info.port}\n`);
+    await measure(info, loadS, "route handlers on node:http (child process)");
+  } finally {
+    child.send("stop");
+    await new Promise((r) => child.once("exit", r));
+    agent.destroy();
+  }
+}
+
+async function measure(info: ServerInfo, loadS: number, what: string): Promise<void> {
+  let failures = 0;
+  {
+    console.log(`Tidewright runs benchmark — Node ${process.version}, ${os.availableParallelism()} CPUs, load average ${os.loadavg()[0].toFixed(2)}; ${what} on ${HOST}:${info.port}\n`);
     const runBody = (duration: number) => ({ revisionId: info.revisionId, caseId: info.caseId, duration, rig: "project" });
 
     // 1. POST a 60 s run, end to end.
@@ -277,14 +325,16 @@ async function drive(): Promise<void> {
     const longId = (JSON.parse(long.text) as { id: string }).id;
     console.log(`${"POST /api/runs, 600 s run".padEnd(44)} ${ms(long.ms)} (one run)`);
     const windowPath = `/api/runs/${longId}/waveform?from=0&to=600&points=2000&signals=paw,flow,volume,pmus`;
-    const cold: number[] = [];
-    for (let i = 0; i < 5; i++) {
-      await request(info, "GET", `/__bench/drop-cache/${longId}`);
-      const r = await request(info, "GET", windowPath);
-      if (r.status !== 200) failures++;
-      cold.push(r.ms);
+    if (info.benchHooks) {
+      const cold: number[] = [];
+      for (let i = 0; i < 5; i++) {
+        await request(info, "GET", `/__bench/drop-cache/${longId}`);
+        const r = await request(info, "GET", windowPath);
+        if (r.status !== 200) failures++;
+        cold.push(r.ms);
+      }
+      line("GET waveform, 10-min run, whole, cold", stats(cold), "< 30 ms");
     }
-    line("GET waveform, 10-min run, whole, cold", stats(cold), "< 30 ms");
     const warm: number[] = [];
     for (let i = 0; i < 50; i++) {
       const r = await request(info, "GET", windowPath);
@@ -307,10 +357,6 @@ async function drive(): Promise<void> {
     failures += await load(info, "GET waveform window (60 s run, whole)", `/api/runs/${runId}/waveform?points=2000`, loadS, "0 errors");
     failures += await load(info, "GET waveform window (10-min run, 6 s)", `/api/runs/${longId}/waveform?from=300&to=306&points=1500`, loadS, "0 errors");
     console.log(`\n${failures === 0 ? "0 errors" : `${failures} errors / non-2xx`} in total.`);
-  } finally {
-    child.send("stop");
-    await new Promise((r) => child.once("exit", r));
-    agent.destroy();
   }
 }
 
