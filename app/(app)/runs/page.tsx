@@ -7,6 +7,7 @@ import { findVisibleRevision } from "@/db/queries/runs";
 import { getCase } from "@/db/queries/cases";
 import { canRunSimulations } from "@/lib/auth/roles";
 import { currentUser } from "@/lib/auth/session";
+import { warmSimulationPool } from "@/lib/runs/pool";
 import { RunLauncher } from "@/components/run-actions/run-launcher";
 import { RunList } from "@/components/run-actions/run-list";
 import { Card, CardBody, CardHeader } from "@/components/ui/card";
@@ -32,6 +33,8 @@ export default async function RunsPage({ searchParams }: { searchParams: Promise
   if (revisionId) {
     const revision = await findVisibleRevision(db, user, revisionId);
     if (!revision) notFound();
+    // The launcher is on this page: have the simulation workers up before the first run.
+    if (canRunSimulations(revision.role)) warmSimulationPool();
     return (
       <main className="space-y-6">
         <Link href={`/projects/${revision.projectId}`} className="text-xs text-ink-500 hover:text-ink-800">
