@@ -44,8 +44,10 @@ export function executeJob(job: SimJob, control: RunControl): SimOutcome {
   } catch (err) {
     if (control.cancelled) return { ok: false, reason: "cancelled", error: "Cancelled." };
     const message = err instanceof Error ? err.message : String(err);
-    const elapsed = performance.now() - started;
-    const overBudget = elapsed >= job.wallBudgetMs || /budget/i.test(message);
+    // lib/sim/errors.ts SimError carries a code ("budget", "cancelled", "loop", "bad-input", …).
+    const code = (err as { code?: unknown } | null)?.code;
+    if (code === "cancelled") return { ok: false, reason: "cancelled", error: "Cancelled." };
+    const overBudget = code === "budget" || performance.now() - started >= job.wallBudgetMs;
     return { ok: false, reason: overBudget ? "budget" : "engine", error: message || "The engine stopped with an error." };
   }
 }
