@@ -96,7 +96,7 @@ export function LivePreview({ definition, rig, onActiveStep, createSimulation = 
         const t0 = performance.now();
         try {
           owed = Math.min(owed + dt * speed, MAX_FRAME_S * speed);
-          s.advance(owed);
+          if (owed > 0) s.advance(owed);
         } catch (err) {
           send({ type: "FAIL", error: err instanceof Error ? err.message : String(err) });
           return;
@@ -127,6 +127,8 @@ export function LivePreview({ definition, rig, onActiveStep, createSimulation = 
         patient: toEnginePatient(patient),
         rig,
         durationS: DURATION_S,
+        // The trace keeps one point per 4 ms anyway; recording every 1 ms step would only fill memory.
+        sampleEvery: 4,
         // The preview runs as long as someone watches; the default budget is meant for batch runs.
         wallBudgetMs: 24 * 3600 * 1000,
       });

@@ -5,7 +5,6 @@
  * All edits are local until "Save revision" posts a new immutable revision.
  */
 import { useCallback, useEffect, useMemo, useRef, useState } from "react";
-import { useRouter } from "next/navigation";
 import { ReactFlowProvider } from "@xyflow/react";
 import type { SequenceDefinition, SequenceLayout } from "@/machines/schema";
 import type { Rig } from "@/lib/sim/types";
@@ -46,7 +45,6 @@ export function SequenceEditor(props: SequenceEditorProps) {
 }
 
 function EditorBody({ sequenceId, sequenceName, revision, rig, readOnly }: SequenceEditorProps) {
-  const router = useRouter();
   const initialDoc = useMemo<EditorDoc>(
     () => ({ definition: revision.definition, layout: completeLayout(revision.definition, revision.layout) }),
     // The editor owns its document after mount; a re-render of the page with a new revision does not reset it.
@@ -86,9 +84,9 @@ function EditorBody({ sequenceId, sequenceName, revision, rig, readOnly }: Seque
           setSavedDoc(sent);
           setMessage("");
           setServerProblems([]);
+          // No router.refresh(): the page keys the editor by revision, and a remount would drop the
+          // undo history. The history and compare pages load fresh data when opened.
           setStatus({ kind: "saved", number: outcome.number, warnings: outcome.warnings.length });
-          // The page's history list is a server component: refresh it to show the new revision.
-          router.refresh();
           break;
         case "stale":
           setStatus({ kind: "stale", error: outcome.error, latestRevision: outcome.latestRevision });
@@ -103,7 +101,7 @@ function EditorBody({ sequenceId, sequenceName, revision, rig, readOnly }: Seque
           break;
       }
     },
-    [baseRevision, doc, message, readOnly, router, sequenceId, status.kind],
+    [baseRevision, doc, message, readOnly, sequenceId, status.kind],
   );
 
   const loadLatest = useCallback(

@@ -1,9 +1,10 @@
 /**
- * Where the preview gets its engine. lib/sim/simulate.ts (engine) exports `createSimulation`; until
- * it lands this is null and the preview says so instead of running.
+ * Where the preview gets its engine: lib/sim/simulate.ts, which runs unchanged in the browser.
+ * Kept behind this one module so tests and a build without the engine can swap it.
  */
+import { createSimulation as engineCreateSimulation } from "@/lib/sim/simulate";
 import type { LiveSimulation, SimOptions } from "@/lib/sim/types";
 
 export type CreateSimulation = (options: SimOptions) => LiveSimulation;
 
-export const createSimulation: CreateSimulation | null = null;
+export const createSimulation: CreateSimulation | null = engineCreateSimulation;
