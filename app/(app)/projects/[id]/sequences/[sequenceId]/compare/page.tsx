@@ -2,10 +2,9 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { getRevision } from "@/db/queries/revisions";
-import { diffDefinitions } from "@/machines/diff";
 import { loadSequencePage, revisionFromQuery } from "@/lib/sequences/page-data";
 import { SequenceHeader } from "@/components/sequences/sequence-header";
-import { DiffSummary } from "@/components/sequences/diff-summary";
+import { RevisionCompare } from "@/components/designer/revision-compare";
 import { formatTime, shortHash } from "@/components/sequences/format";
 import type { RevisionDetail } from "@/lib/sequences/types";
 
@@ -43,7 +42,6 @@ export default async function CompareRevisionsPage({
   const a = revisionFromQuery(query.a) ?? Math.max(1, b - 1);
   const [left, right] = await Promise.all([getRevision(db, sequence.id, a), getRevision(db, sequence.id, b)]);
   if (!left || !right) notFound();
-  const diff = diffDefinitions(left.definition, right.definition);
   const base = `/projects/${project.id}/sequences/${sequence.id}`;
 
   return (
@@ -56,13 +54,10 @@ export default async function CompareRevisionsPage({
           Swap sides
         </Link>
       </section>
-      <section aria-labelledby="changes" className="mb-6">
-        <h2 id="changes" className="mb-3 text-base font-semibold text-ink-900">
-          Changes from r{left.number} to r{right.number}
-        </h2>
-        <DiffSummary diff={diff} />
-      </section>
-      {/* Side-by-side canvases: components/designer/revision-compare.tsx (designer-ui), wired when it lands. */}
+      <RevisionCompare
+        a={{ number: left.number, definition: left.definition, layout: left.layout }}
+        b={{ number: right.number, definition: right.definition, layout: right.layout }}
+      />
     </main>
   );
 }
