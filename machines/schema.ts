@@ -171,6 +171,7 @@ export const SIGNALS = {
   flow: { unit: "L/min", description: "flow into the patient as sensed (negative when exhaling)" },
   vol: { unit: "mL", description: "volume delivered since the breath started (integrated sensed flow)" },
   peakFlow: { unit: "L/min", description: "highest inspiratory flow so far in this breath" },
+  peakPaw: { unit: "cmH2O", description: "highest airway pressure so far in this breath (as sensed)" },
   tStep: { unit: "s", description: "time in the current step" },
   tBreath: { unit: "s", description: "time since the current breath started" },
   arm: { unit: "deg", description: "bag-compressor arm angle (0 = at rest)" },

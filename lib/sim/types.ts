@@ -90,12 +90,16 @@ export const rigSchema = z
         expiratoryResistanceCmH2OPerLps: positive("expiratory resistance").max(200).default(3),
         /** Inspiratory inlet (one-way) valve cracking pressure below ambient, cmH2O. */
         inletCrackingCmH2O: nonNegative("inlet cracking pressure").max(20).default(1),
+        /** Inlet valve resistance once open, cmH2O/(L/s). */
+        inletResistanceCmH2OPerLps: positive("inlet resistance").max(200).default(2),
       })
       .strict(),
     /** Mechanical PEEP valve setting, cmH2O; null = the valve follows the sequence's PEEP setting. */
     peepValveCmH2O: nonNegative("PEEP valve").max(40).nullable().default(null),
     /** Relief (pop-off) valve opening pressure, cmH2O. */
     reliefValveCmH2O: positive("relief valve").max(120),
+    /** Relief valve resistance above its opening pressure, cmH2O/(L/s) (its flow curve, linearised). */
+    reliefResistanceCmH2OPerLps: positive("relief valve resistance").max(100).default(1),
     sensor: z
       .object({
         pressureLagS: nonNegative("pressure sensor lag").max(1),
@@ -210,6 +214,16 @@ export interface SimOptions {
   onProgress?: (fraction: number) => void;
   /** Checked now and then; when it returns true the run stops with a "cancelled" error. */
   shouldStop?: () => boolean;
+  /** Record one waveform sample every N physics steps (default 1 = full resolution). */
+  sampleEvery?: number;
+  /** Cap on step transitions within one scan (default 32); past it the run fails naming the looping steps. */
+  maxTransitionsPerScan?: number;
+  /**
+   * Send the SCAN event to the actor on every scan (true) or only on scans where one of the active
+   * step's SCAN guards passes (false, default). A SCAN that no guard accepts is a no-op in XState,
+   * so both give identical runs; the default saves the actor's ~3.5 µs per idle scan.
+   */
+  sendEveryScan?: boolean;
 }
 
 /**
