@@ -9,7 +9,8 @@ import { GET as getRoute } from "@/app/api/runs/[id]/route";
 import { POST as cancelRoute } from "@/app/api/runs/[id]/cancel/route";
 import { GET as windowRoute } from "@/app/api/runs/[id]/waveform/route";
 import { GET as csvRoute } from "@/app/api/runs/[id]/waveform.csv/route";
-import { patientCases, runs } from "@/db/schema";
+import { patientCases, revisions, runs } from "@/db/schema";
+import { sequenceDefinition } from "@/machines/schema";
 import { findRunWaveform } from "@/db/queries/runs";
 import { isoCaseName, seedPatientCases } from "@/db/seed-cases";
 import type { Role } from "@/lib/auth/roles";
@@ -150,8 +151,10 @@ describe("POST /api/runs", () => {
     const res = await post("engineer", { revisionId, caseId: isoRow1CaseId, duration: 12, rig: "ideal", seed: 3 });
     expect(res.status).toBe(201);
     const [caseRow] = await t.db.select().from(patientCases).where(eq(patientCases.id, isoRow1CaseId));
+    // The definition as stored: jsonb reorders object keys, and the engine numbers steps in key order.
+    const [revRow] = await t.db.select().from(revisions).where(eq(revisions.id, revisionId));
     const direct = simulate({
-      definition: templateDefinition("pressure-control"),
+      definition: sequenceDefinition.parse(revRow.definition),
       patient: patientSchema.parse(caseRow.body),
       rig: "ideal",
       durationS: 12,
