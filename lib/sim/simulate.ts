@@ -164,7 +164,7 @@ export function createSimulation(opts: SimOptions): LiveSimulation {
   const run = prepare(opts);
   const { sequence, settings, rig, ideal, dtS, scanS, stepsPerScan, durationS } = run;
   const seed = opts.seed ?? 1;
-  const effortRng: Rng = createRng(seed);
+  const effortRng: Rng = createRng(opts.effortSeed ?? seed);
   const noiseRng: Rng = createRng(seed * 7919 + 17);
   const effort = effortSchedule(run.patient.effort, durationS, effortRng);
   const circuit = circuitParams(run);

@@ -208,6 +208,8 @@ export interface SimOptions {
   /** Controller scan period; default the rig's scanPeriodS, or 0.01 on the ideal circuit. */
   scanS?: number;
   seed?: number; // default 1
+  /** Seed of the effort variability alone (default: `seed`), so noise and effort can be varied apart. */
+  effortSeed?: number;
   /** Wall-time budget, ms (default 20000): past it the run stops with an error. */
   wallBudgetMs?: number;
   /** Called now and then with the simulated fraction done (0..1). */
