@@ -29,6 +29,8 @@ export const QUANTITIES = {
   elastance: { canonical: "cmH2O/L", label: "an elastance" },
   angle: { canonical: "deg", label: "an angle" },
   frequency: { canonical: "Hz", label: "a frequency" },
+  length: { canonical: "cm", label: "a length" },
+  mass: { canonical: "kg", label: "a mass" },
   dimensionless: { canonical: "", label: "a plain number" },
 } as const;
 export type Quantity = keyof typeof QUANTITIES;
@@ -116,7 +118,7 @@ function evalNode(n: MathNode): Value {
         case "divide":
           return math.divide(args[0], args[1]) as Value;
         case "pow":
-          return math.pow(args[0], args[1]) as Value;
+          return math.pow(args[0] as Unit, args[1] as number) as Value;
         case "unaryMinus":
           return math.unaryMinus(args[0]) as Value;
         default:
