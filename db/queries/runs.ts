@@ -106,6 +106,15 @@ export interface FinishedRun {
   wallMs: number;
 }
 
+/**
+ * The waveform blob crosses the driver as base64 text, decoded/encoded by Postgres itself: PGlite's
+ * bytea parameter and result paths go through hex in JavaScript, measured here at ~35 ms to write and
+ * ~100 ms to read a 10-minute run's 1.7 MB blob, against ~8 ms and ~5 ms as base64. Same column, same bytes.
+ */
+function blobToBase64(bytes: Uint8Array): string {
+  return Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength).toString("base64");
+}
+
 export async function completeRun(db: Db, id: string, result: FinishedRun): Promise<void> {
   await db
     .update(runs)
@@ -115,7 +124,7 @@ export async function completeRun(db: Db, id: string, result: FinishedRun): Prom
       breaths: result.breaths,
       alarms: result.alarms,
       steps: result.steps,
-      waveform: result.waveform,
+      waveform: sql`decode(${blobToBase64(result.waveform)}, 'base64')`,
       wallMs: result.wallMs,
       error: null,
       finishedAt: sql`now()`,
@@ -240,8 +249,15 @@ export async function findVisibleRun(db: Db, user: SessionUser, id: string): Pro
 
 /** The stored waveform blob of a run (call after findVisibleRun has authorized the caller). */
 export async function findRunWaveform(db: Db, id: string): Promise<Uint8Array | null> {
-  const [row] = await db.select({ waveform: runs.waveform }).from(runs).where(eq(runs.id, id)).limit(1);
-  return row?.waveform ?? null;
+  const [row] = await db
+    .select({ base64: sql<string | null>`encode(${runs.waveform}, 'base64')` })
+    .from(runs)
+    .where(eq(runs.id, id))
+    .limit(1);
+  if (!row || row.base64 === null) return null;
+  // Postgres wraps base64 lines at 76 characters; Node's decoder skips the newlines.
+  const buf = Buffer.from(row.base64, "base64");
+  return new Uint8Array(buf.buffer, buf.byteOffset, buf.byteLength);
 }
 
 export interface RunListItem {

@@ -148,43 +148,49 @@ interface Extremes {
 
 /** Min and max of series[i0, i1) (i1 > i0), through the index where whole blocks are covered. */
 function rangeExtremes(series: ArrayLike<number>, index: SignalIndex | undefined, i0: number, i1: number, out: Extremes): void {
-  let min = series[i0];
-  let max = min;
-  let iMin = i0;
-  let iMax = i0;
-  const scan = (a: number, b: number) => {
-    for (let i = a; i < b; i++) {
-      const v = series[i];
-      if (v < min) {
-        min = v;
-        iMin = i;
-      } else if (v > max) {
-        max = v;
-        iMax = i;
-      }
-    }
-  };
+  out.min = series[i0];
+  out.max = out.min;
+  out.iMin = i0;
+  out.iMax = i0;
   const firstBlock = index ? Math.ceil((i0 + 1) / INDEX_BLOCK) : 0;
   const lastBlock = index ? Math.floor(i1 / INDEX_BLOCK) : 0; // exclusive
   if (!index || lastBlock - firstBlock < 2) {
-    scan(i0 + 1, i1);
-  } else {
-    scan(i0 + 1, firstBlock * INDEX_BLOCK);
-    for (let b = firstBlock; b < lastBlock; b++) {
-      if (index.min[b] < min) {
-        min = index.min[b];
-        iMin = index.iMin[b];
-      }
-      if (index.max[b] > max) {
-        max = index.max[b];
-        iMax = index.iMax[b];
-      }
+    scanInto(series, i0 + 1, i1, out);
+    return;
+  }
+  scanInto(series, i0 + 1, firstBlock * INDEX_BLOCK, out);
+  for (let b = firstBlock; b < lastBlock; b++) {
+    if (index.min[b] < out.min) {
+      out.min = index.min[b];
+      out.iMin = index.iMin[b];
     }
-    scan(lastBlock * INDEX_BLOCK, i1);
+    if (index.max[b] > out.max) {
+      out.max = index.max[b];
+      out.iMax = index.iMax[b];
+    }
+  }
+  scanInto(series, lastBlock * INDEX_BLOCK, i1, out);
+}
+
+/** Extend `out` with samples [a, b); first occurrence wins ties. */
+function scanInto(series: ArrayLike<number>, a: number, b: number, out: Extremes): void {
+  let min = out.min;
+  let max = out.max;
+  let iMin = out.iMin;
+  let iMax = out.iMax;
+  for (let i = a; i < b; i++) {
+    const v = series[i];
+    if (v < min) {
+      min = v;
+      iMin = i;
+    } else if (v > max) {
+      max = v;
+      iMax = i;
+    }
   }
   out.min = min;
-  out.iMin = iMin;
   out.max = max;
+  out.iMin = iMin;
   out.iMax = iMax;
 }
 
