@@ -207,8 +207,12 @@ export class Plant {
       // Driver.
       let qIn = 0;
       let pawNext: number;
+      // Pressure the lung sees over the step (the ideal pressure source's ramp averaged over the step,
+      // exact for a linear rise: second-order accurate where the end value would lag by dt/2).
+      let pawStep: number;
       if (drv.ideal && kind === K_PRESSURE) {
         pawNext = rise(t1, this.cmdStartS, this.cmdStartCmH2O, this.cmdTargetCmH2O, this.cmdRiseS);
+        pawStep = 0.5 * (pawNext + rise(t1 - dt, this.cmdStartS, this.cmdStartCmH2O, this.cmdTargetCmH2O, this.cmdRiseS));
       } else {
         if (drv.ideal && kind === K_FLOW) {
           qIn = this.cmdFlowLps > 0 ? this.cmdFlowLps : 0;
@@ -242,9 +246,10 @@ export class Plant {
           }
         }
         pawNext = solveNode(paw, dt, circ, valveOpen, qIn, g, back);
+        pawStep = pawNext;
       }
       paw = pawNext;
-      flow = g * (paw - back);
+      flow = g * (pawStep - back);
       v += flow * dt;
       // Metrics accumulators.
       if (paw > pip) pip = paw;
