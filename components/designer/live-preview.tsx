@@ -179,7 +179,11 @@ export function LivePreview({ definition, rig, onActiveStep, createSimulation = 
         <h2 className="text-sm font-semibold text-ink-800">Live preview</h2>
         <button
           type="button"
-          onClick={() => send({ type: running ? "PAUSE" : "PLAY" })}
+          onClick={() => {
+            send({ type: running ? "PAUSE" : "PLAY" });
+            // The readouts are throttled while running; show exactly where it stopped.
+            if (running) pump(true);
+          }}
           disabled={unavailable || failed}
           className="rounded bg-glass-700 px-3 py-0.5 text-xs font-semibold text-white hover:bg-glass-800 disabled:opacity-40"
           data-testid="preview-play"

@@ -1,0 +1,108 @@
+/**
+ * Browser specs of the sequence designer (issue 4 §12): build on a template, save a revision, see it in
+ * the history and the diff; a clinician's read-only view; the live preview lighting up steps.
+ */
+import { assert, eventually, test } from "../harness";
+import { DesignerPage } from "../pages/designer-page";
+import { SignInPage } from "../pages/sign-in-page";
+import { ComparePage, DEMO_PROJECT, HistoryPage, NewSequencePage, projectIdByName } from "../pages/sequence-pages";
+
+export const tests = [
+  test("an engineer adds a hold step to assist-volume, saves revision 2, sees it in history and the diff; a clinician reads it", async ({ page, baseUrl, newContext }) => {
+    await new SignInPage(page, baseUrl).signInAs("engineer");
+    const projectId = await projectIdByName(page, DEMO_PROJECT);
+    const sequenceId = await new NewSequencePage(page, baseUrl).create(projectId, `E2E hold ${Date.now()}`, "assist-volume");
+
+    const designer = new DesignerPage(page, baseUrl);
+    await designer.waitReady();
+    assert.equal(await designer.baseRevision(), 1);
+    assert.equal(await designer.isReadOnly(), false);
+    assert.deepEqual((await designer.stepNames()).sort(), ["expire", "highPressure", "hold", "inhale", "standby"]);
+
+    // A second pause step between inhale and expiration.
+    const hold = await designer.addStep("hold");
+    assert.equal(hold, "hold2");
+    await designer.autoLayout();
+    await designer.connect(hold, "expire");
+    // The new transition is selected: make it a 0.3 s timer.
+    await designer.setTimer("0.3");
+    await eventually(async () => assert.match((await designer.edgeLabel(hold, "expire").textContent()) ?? "", /after 0\.3 s/));
+    // Route inhale's "no pause" exit through the new step.
+    await designer.selectTransition("inhale", "expire");
+    await designer.setTarget(hold);
+    await designer.edgeLabel("inhale", hold).waitFor();
+
+    const saved = await designer.save("Second pause before expiration");
+    assert.equal(saved, 2);
+    assert.equal(await designer.baseRevision(), 2);
+
+    const history = new HistoryPage(page, baseUrl);
+    await history.goto(projectId, sequenceId);
+    const revisions = await history.revisions();
+    assert.deepEqual(revisions.map((r) => r.number), [2, 1]);
+    assert.equal(revisions[0].message, "Second pause before expiration");
+
+    await history.compareTicked();
+    const compare = new ComparePage(page);
+    const diffs = await compare.differences();
+    assert.ok(diffs.some((d) => d.kind === "added" && d.text.includes(hold)), `no added ${hold} in ${JSON.stringify(diffs)}`);
+    assert.ok(diffs.some((d) => d.kind === "added" && d.text.includes(`${hold} → expire (timer 0.3)`)));
+    assert.ok(diffs.some((d) => d.text.includes(`inhale → ${hold}`)));
+    assert.deepEqual(await compare.markedSteps("b"), { [hold]: "added" });
+
+    // A clinician opens the same sequence: everything visible, nothing editable, the preview still runs.
+    const clinicianContext = await newContext();
+    const clinicianPage = await clinicianContext.newPage();
+    await new SignInPage(clinicianPage, baseUrl).signInAs("clinician");
+    const reader = new DesignerPage(clinicianPage, baseUrl);
+    await reader.goto(projectId, sequenceId);
+    assert.equal(await reader.isReadOnly(), true);
+    assert.equal(await reader.baseRevision(), 2);
+    assert.ok((await reader.stepNames()).includes(hold));
+    assert.equal(await clinicianPage.getByTestId("read-only-badge").count(), 1);
+    assert.equal(await reader.palette("hold").count(), 0);
+    assert.equal(await clinicianPage.getByTestId("save-revision").count(), 0);
+    await reader.selectStep(hold);
+    assert.equal(await clinicianPage.getByTestId("step-name").isDisabled(), true);
+    await reader.play(5);
+    await eventually(async () => assert.notEqual(await reader.activeStep(), null), 10_000);
+  }),
+
+  test("the live preview lights up the steps as the sequence moves through them", async ({ page, baseUrl }) => {
+    await new SignInPage(page, baseUrl).signInAs("engineer");
+    const projectId = await projectIdByName(page, DEMO_PROJECT);
+    const sequenceId = await new NewSequencePage(page, baseUrl).create(projectId, `E2E preview ${Date.now()}`, "assist-volume");
+    const designer = new DesignerPage(page, baseUrl);
+    await designer.goto(projectId, sequenceId);
+    assert.equal(await designer.activeStep(), "inhale", "the entry step is lit before playing");
+
+    await designer.recordLitSteps();
+    await designer.play(2);
+    // Two breaths: 2 × 60/RR = 8 s of sequence at 2× real time.
+    const seen = await eventually(
+      async () => {
+        const lit = await designer.litSteps();
+        assert.ok(lit.length >= 6, `lit so far: ${lit.join(" → ")}`);
+        return lit;
+      },
+      20_000,
+    );
+    // The cycle as assist-volume defines it (no patient effort: mandatory breaths), in order.
+    assert.equal(seen.slice(0, 6).join(" → "), "hold → expire → inhale → hold → expire → inhale");
+
+    const stats = await eventually(async () => {
+      const s = await designer.previewStats();
+      assert.ok(s && s.fps > 0);
+      return s;
+    });
+    // 2× real time on a 10 ms scan is 200 scans/s; allow for a slow CI machine.
+    assert.ok(stats.scans > 100, `only ${stats.scans} scans/s`);
+    console.log(`      preview: ${stats.fps} fps, ${stats.scans} scans/s, engine ${stats.engineMs} ms/frame`);
+
+    await designer.pause();
+    const pausedAt = await page.getByTestId("preview-time").textContent();
+    await page.getByTestId("preview-step").click();
+    const stepped = await page.getByTestId("preview-time").textContent();
+    assert.ok(Math.abs(Number(stepped) - Number(pausedAt) - 0.01) < 0.0051, `${pausedAt} → ${stepped}`);
+  }),
+];
