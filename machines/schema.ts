@@ -175,5 +175,6 @@ export const SIGNALS = {
   tStep: { unit: "s", description: "time in the current step" },
   tBreath: { unit: "s", description: "time since the current breath started" },
   arm: { unit: "deg", description: "bag-compressor arm angle (0 = at rest)" },
+  breathCount: { unit: "", description: "breaths started so far in the run (0 before the first)" },
 } as const;
 export type SignalName = keyof typeof SIGNALS;

@@ -86,12 +86,17 @@ export function computeMetrics(input: MetricsInput): Metrics {
     const end = r.end ?? timeS;
     const ti = inspEnd - r.start;
     const te = end - inspEnd;
-    // The effort under way at the breath start: the first one not already credited with a breath.
+    // The effort under way at the breath start: the first one not already credited with a breath; failing
+    // that, one already credited (a second cycle within the same effort: double triggering, not auto).
     let effortIdx = -1;
+    let underWay = -1;
     for (let i = 0; i < nEff && efforts.onsetS[i] <= r.start + 1e-9; i++) {
-      if (!used[i] && efforts.endS[i] >= r.start - 1e-9) {
-        effortIdx = i;
-        break;
+      if (efforts.endS[i] >= r.start - 1e-9) {
+        if (underWay < 0) underWay = i;
+        if (!used[i]) {
+          effortIdx = i;
+          break;
+        }
       }
     }
     const flags: Breath["flags"] = [];
@@ -105,11 +110,13 @@ export function computeMetrics(input: MetricsInput): Metrics {
         flags.push("auto-trigger");
       }
     }
+    if (r.trigger === "patient" && effortIdx < 0 && underWay >= 0) flags.pop();
+    const onsetIdx = effortIdx >= 0 ? effortIdx : underWay;
     return {
       index,
       start: r.start,
       trigger: r.trigger,
-      effortOnset: effortIdx >= 0 ? efforts.onsetS[effortIdx] : null,
+      effortOnset: onsetIdx >= 0 ? efforts.onsetS[onsetIdx] : null,
       latencyMs,
       pip: r.pip,
       pplat: r.pplat,

@@ -283,6 +283,7 @@ export function createSimulation(opts: SimOptions): LiveSimulation {
       plant.resetBreath();
       plant.inspiratory = true;
       breathStartS = timeS;
+      slots[sig.breathCount] += 1;
       slots[sig.tBreath] = 0;
       slots[sig.vol] = 0;
       slots[sig.peakFlow] = 0;

@@ -150,7 +150,7 @@ export function standbyStep(start: string): StateInput {
  * `threshold`; it re-arms at every breath start (tBreath resets), so a disconnection alarms every breath.
  */
 export const lowPressureMonitor = (after: string, threshold: string) => ({
-  when: `tBreath >= ${after} and peakPaw < ${threshold}`,
+  when: `breathCount > 0 and tBreath >= ${after} and peakPaw < ${threshold}`,
   alarm: {
     kind: "low-pressure",
     message: "Inspiratory pressure not reached: check for a disconnection or a large leak",
@@ -159,6 +159,6 @@ export const lowPressureMonitor = (after: string, threshold: string) => ({
 });
 
 export const apneaMonitor = (limit: string, message: string) => ({
-  when: `tBreath > ${limit}`,
+  when: `tBreath >= ${limit}`,
   alarm: { kind: "apnea", message, priority: "high" as const },
 });
