@@ -20,11 +20,11 @@ export function BottomTabs(p: BottomTabsProps) {
     { id: "settings", label: `Settings (${p.settingCount})` },
   ];
   return (
-    <section className="rounded border border-slate-300 bg-white">
+    <section className="rounded border border-ink-300 bg-surface">
       <div
         role="tablist"
         aria-label="Sequence details"
-        className="flex gap-1 border-b border-slate-200 px-2 pt-1"
+        className="flex gap-1 border-b border-ink-200 px-2 pt-1"
         onKeyDown={(e) => {
           if (e.key === "ArrowRight" || e.key === "ArrowLeft") p.onTab(p.tab === "problems" ? "settings" : "problems");
         }}
@@ -41,7 +41,7 @@ export function BottomTabs(p: BottomTabsProps) {
             onClick={() => p.onTab(t.id)}
             data-testid={`tab-${t.id}`}
             className={`-mb-px rounded-t border px-3 py-1 text-xs ${
-              p.tab === t.id ? "border-slate-200 border-b-white bg-white font-semibold" : "border-transparent text-slate-600"
+              p.tab === t.id ? "border-ink-200 border-b-white bg-surface font-semibold" : "border-transparent text-ink-600"
             } ${t.id === "problems" && p.errorCount > 0 ? "text-red-800" : ""}`}
           >
             {t.label}

@@ -25,6 +25,7 @@ import { liveProblems, problemDecorations, selectionOfTarget, countBySeverity, t
 import { loadRevision, saveRevision } from "./model/revisions-api";
 import { definitionFileName, definitionFileText, parseDefinitionFile } from "./model/import-export";
 import { downloadText } from "./model/download";
+import { clearDraft, readDraft, storeDraft, type Draft } from "./model/draft-store";
 import type { EditorDoc } from "./model/doc";
 
 export interface SequenceEditorProps {
@@ -65,6 +66,27 @@ function EditorBody({ sequenceId, sequenceName, revision, rig, readOnly }: Seque
   const [tab, setTab] = useState<BottomTab>("problems");
   const [activeStep, setActiveStep] = useState<string | null>(null);
   const dirty = doc !== savedDoc;
+  const [draft, setDraft] = useState<Draft | null>(null);
+
+  // Offer back edits a previous visit left unsaved (read once, after mount: localStorage is client-only).
+  useEffect(() => {
+    if (readOnly) return;
+    // In a task, not during the effect: the offer is a second render anyway, after hydration.
+    const id = setTimeout(() => {
+      const found = readDraft(sequenceId);
+      if (!found || JSON.stringify(found.doc.definition) === JSON.stringify(initialDoc.definition)) return;
+      setDraft(found);
+      setStatus({ kind: "draft", savedAt: found.savedAt, baseRevision: found.baseRevision, current: revision.number });
+    }, 0);
+    return () => clearTimeout(id);
+  }, [initialDoc, readOnly, revision.number, sequenceId]);
+
+  // Keep unsaved edits in the browser, a moment after the last change.
+  useEffect(() => {
+    if (readOnly || !dirty) return;
+    const id = setTimeout(() => storeDraft(sequenceId, baseRevision, doc), 800);
+    return () => clearTimeout(id);
+  }, [baseRevision, dirty, doc, readOnly, sequenceId]);
 
   const problems = useMemo(() => liveProblems(doc.definition), [doc.definition]);
   const counts = countBySeverity(problems);
@@ -82,6 +104,7 @@ function EditorBody({ sequenceId, sequenceName, revision, rig, readOnly }: Seque
         case "saved":
           setBaseRevision(outcome.number);
           setSavedDoc(sent);
+          clearDraft(sequenceId);
           setMessage("");
           setServerProblems([]);
           // No router.refresh(): the page keys the editor by revision, and a remount would drop the
@@ -213,6 +236,16 @@ function EditorBody({ sequenceId, sequenceName, revision, rig, readOnly }: Seque
       />
       <StatusBanner
         status={status}
+        onRestoreDraft={() => {
+          if (draft) editor.apply(draft.doc);
+          setDraft(null);
+          setStatus({ kind: "info", text: "Restored your unsaved edits. Ctrl+Z goes back to the saved revision." });
+        }}
+        onDiscardDraft={() => {
+          clearDraft(sequenceId);
+          setDraft(null);
+          setStatus({ kind: "idle" });
+        }}
         onLoadLatest={(n) => void loadLatest(n)}
         onSaveOver={(n) => void save(n)}
         onShowProblems={() => setTab("problems")}
@@ -220,7 +253,7 @@ function EditorBody({ sequenceId, sequenceName, revision, rig, readOnly }: Seque
       />
       <div className="grid min-h-0 grid-cols-[minmax(0,1fr)_22rem] gap-2">
         <div className="flex min-w-0 flex-col gap-2">
-          <div ref={canvasBoxRef} className="h-[58vh] min-h-[420px] overflow-hidden rounded border border-slate-300 bg-white">
+          <div ref={canvasBoxRef} className="h-[58vh] min-h-[420px] overflow-hidden rounded border border-ink-300 bg-surface">
             <SequenceCanvas
               definition={doc.definition}
               layout={doc.layout}
@@ -235,7 +268,7 @@ function EditorBody({ sequenceId, sequenceName, revision, rig, readOnly }: Seque
           </div>
           <LivePreview definition={doc.definition} rig={rig} onActiveStep={setActiveStep} />
         </div>
-        <div className="max-h-[calc(58vh+24rem)] overflow-hidden rounded border border-slate-300 bg-white">
+        <div className="max-h-[calc(58vh+24rem)] overflow-hidden rounded border border-ink-300 bg-surface">
           <Inspector
             definition={doc.definition}
             selection={selection}

@@ -12,32 +12,34 @@ export interface KindStyle {
   dashed?: boolean;
 }
 
+// Hex values of the app palette (app/globals.css @theme): SVG fills and React Flow's inline styles
+// cannot use Tailwind classes, so the tokens are mirrored here.
 export const KIND_STYLES: Record<StepKind, KindStyle> = {
-  inhale: { fill: "#dcefe9", stroke: "#2e7d6f", ink: "#123c35" },
-  hold: { fill: "#e7ebef", stroke: "#566474", ink: "#1f2a35" },
-  exhale: { fill: "#dfe8f1", stroke: "#3f6486", ink: "#16304a" },
-  "wait-for-trigger": { fill: "#f7e8da", stroke: "#b4622d", ink: "#4a2410", dashed: true },
-  safe: { fill: "#eef0f2", stroke: "#2b3440", ink: "#1b222b" },
+  inhale: { fill: "#e3f3ef", stroke: "#2d6a63", ink: "#13232d" }, // glass-100 / glass-700
+  hold: { fill: "#e7eef0", stroke: "#435d6a", ink: "#13232d" }, // ink-100 / ink-600
+  exhale: { fill: "#dfe9f2", stroke: "#3d6482", ink: "#13232d" }, // a blue-grey between ink and glass
+  "wait-for-trigger": { fill: "#fbebd9", stroke: "#b9651f", ink: "#4a2a10", dashed: true }, // ember-100 / ember-600
+  safe: { fill: "#f3f7f7", stroke: "#1d323e", ink: "#0c171e" }, // ink-50 / ink-800
   custom: { fill: "#f2f1ec", stroke: "#6b6656", ink: "#2d2a22" },
 };
 
-/** IEC 60601-1-8 priority colours (red / yellow / cyan) for alarm-raising steps. */
+/** IEC 60601-1-8 priority colours (red / yellow / cyan) for alarm-raising steps (--color-alarm-*). */
 export const ALARM_COLOURS: Record<AlarmSpec["priority"], string> = {
-  high: "#c62828",
-  medium: "#e0a100",
-  low: "#0097b2",
+  high: "#d0251b",
+  medium: "#e3b505",
+  low: "#1aa6c4",
 };
 
 export const CANVAS_COLOURS = {
-  ink: "#1b222b",
-  muted: "#5f6b78",
-  selected: "#0f5c7a",
-  /** The warm accent: the step the live preview is in. */
-  live: "#e2703a",
-  error: "#c62828",
-  warning: "#b7791f",
-  timer: "#566474",
-  condition: "#1f6f66",
+  ink: "#13232d",
+  muted: "#5f7884",
+  selected: "#22544f",
+  /** The warm accent (ember-500): the step the live preview is in. */
+  live: "#d7812e",
+  error: "#b03b2b",
+  warning: "#99501a",
+  timer: "#435d6a",
+  condition: "#2d6a63",
   event: "#6a4c93",
   added: "#2f8f4e",
   removed: "#b0413e",

@@ -53,7 +53,7 @@ function TransitionEdgeComponent({ id, source, target, data, selected, markerEnd
       />
       <EdgeLabelRenderer>
         <div
-          className="nodrag nopan absolute flex max-w-[220px] items-center gap-1 rounded border bg-white px-1.5 py-0.5 text-[11px] leading-tight shadow-sm"
+          className="nodrag nopan absolute flex max-w-[220px] items-center gap-1 rounded border bg-surface px-1.5 py-0.5 text-[11px] leading-tight shadow-sm"
           style={{
             transform: `translate(-50%, -50%) translate(${geo.labelX}px, ${geo.labelY}px)`,
             borderColor: colour,

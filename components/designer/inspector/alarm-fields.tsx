@@ -24,11 +24,11 @@ export function AlarmFields({ disabled }: { disabled: boolean }) {
         )
       }
     >
-      {fields.length === 0 ? <p className="text-xs text-slate-500">Entering this step raises no alarm.</p> : null}
+      {fields.length === 0 ? <p className="text-xs text-ink-500">Entering this step raises no alarm.</p> : null}
       {fields.map((f, i) => {
         const priority = watch(`alarms.${i}.priority`) ?? "medium";
         return (
-          <div key={f.id} className="flex flex-col gap-1 rounded border-l-4 bg-slate-50 p-2" style={{ borderLeftColor: ALARM_COLOURS[priority] }}>
+          <div key={f.id} className="flex flex-col gap-1 rounded border-l-4 bg-ink-50 p-2" style={{ borderLeftColor: ALARM_COLOURS[priority] }}>
             <div className="grid grid-cols-2 gap-2">
               <TextField label="Kind" disabled={disabled} error={errors?.[i]?.kind?.message} {...register(`alarms.${i}.kind`)} />
               <SelectField label="Priority" disabled={disabled} options={PRIORITIES} {...register(`alarms.${i}.priority`)} />

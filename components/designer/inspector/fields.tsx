@@ -3,7 +3,7 @@
 import { forwardRef, useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes } from "react";
 
 const inputClass =
-  "rounded border border-slate-300 px-2 py-1 text-sm outline-none focus:ring-2 focus:ring-sky-300 disabled:bg-slate-100 aria-[invalid=true]:border-red-600";
+  "rounded border border-ink-300 px-2 py-1 text-sm outline-none focus:ring-2 focus:ring-glass-300 disabled:bg-ink-100 aria-[invalid=true]:border-red-600";
 
 interface FieldShellProps {
   label: string;
@@ -16,9 +16,9 @@ interface FieldShellProps {
 function FieldShell({ label, hint, error, id, children }: FieldShellProps) {
   return (
     <div className="flex flex-col gap-0.5">
-      <label htmlFor={id} className="flex items-baseline justify-between text-xs font-medium text-slate-700">
+      <label htmlFor={id} className="flex items-baseline justify-between text-xs font-medium text-ink-700">
         <span>{label}</span>
-        {hint ? <span className="font-normal text-slate-500">{hint}</span> : null}
+        {hint ? <span className="font-normal text-ink-500">{hint}</span> : null}
       </label>
       {children}
       {error ? (
@@ -75,9 +75,9 @@ export const SelectField = forwardRef<HTMLSelectElement, SelectFieldProps>(funct
 
 export function Section({ title, children, actions }: { title: string; children: ReactNode; actions?: ReactNode }) {
   return (
-    <section className="flex flex-col gap-2 border-t border-slate-200 pt-3">
+    <section className="flex flex-col gap-2 border-t border-ink-200 pt-3">
       <div className="flex items-center justify-between">
-        <h3 className="text-xs font-semibold uppercase tracking-wide text-slate-600">{title}</h3>
+        <h3 className="text-xs font-semibold uppercase tracking-wide text-ink-600">{title}</h3>
         {actions}
       </div>
       {children}
@@ -88,7 +88,7 @@ export function Section({ title, children, actions }: { title: string; children:
 export function SmallButton(props: React.ButtonHTMLAttributes<HTMLButtonElement> & { tone?: "plain" | "danger" }) {
   const { tone = "plain", className, ...rest } = props;
   const toneClass =
-    tone === "danger" ? "border-red-300 text-red-800 hover:bg-red-50" : "border-slate-300 text-slate-800 hover:bg-slate-50";
+    tone === "danger" ? "border-red-300 text-red-800 hover:bg-red-50" : "border-ink-300 text-ink-800 hover:bg-ink-50";
   return (
     <button
       type="button"

@@ -43,9 +43,9 @@ export function FormulaField(props: FormulaFieldProps) {
 
   return (
     <div className="flex flex-col gap-0.5">
-      <label htmlFor={id} className="flex items-baseline justify-between text-xs font-medium text-slate-700">
+      <label htmlFor={id} className="flex items-baseline justify-between text-xs font-medium text-ink-700">
         <span>{props.label}</span>
-        {unit ? <span className="font-normal text-slate-500">{unit === "true/false" ? "condition" : `result in ${unit}`}</span> : null}
+        {unit ? <span className="font-normal text-ink-500">{unit === "true/false" ? "condition" : `result in ${unit}`}</span> : null}
       </label>
       <input
         id={id}
@@ -60,8 +60,8 @@ export function FormulaField(props: FormulaFieldProps) {
         aria-invalid={props.error ? true : undefined}
         aria-describedby={`${id}-msg`}
         data-testid={props.testId}
-        className={`rounded border px-2 py-1 font-mono text-sm outline-none focus:ring-2 focus:ring-sky-300 disabled:bg-slate-100 ${
-          props.error ? "border-red-600" : advisory ? "border-amber-500" : "border-slate-300"
+        className={`rounded border px-2 py-1 font-mono text-sm outline-none focus:ring-2 focus:ring-glass-300 disabled:bg-ink-100 ${
+          props.error ? "border-red-600" : advisory ? "border-amber-500" : "border-ink-300"
         }`}
       />
       <p id={`${id}-msg`} role={props.error ? "alert" : undefined} className="min-h-4 text-[11px] leading-snug">
@@ -70,7 +70,7 @@ export function FormulaField(props: FormulaFieldProps) {
         ) : advisory ? (
           <span className="text-amber-800">{advisory.message}</span>
         ) : check.gives ? (
-          <span className="text-slate-500">gives {check.gives}</span>
+          <span className="text-ink-500">gives {check.gives}</span>
         ) : null}
       </p>
       {props.disabled ? null : <NamesList settings={props.settings} onPick={insert} />}

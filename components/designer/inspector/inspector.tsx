@@ -76,7 +76,7 @@ export function Inspector(props: InspectorProps) {
   }
   return (
     <aside className="flex h-full flex-col gap-3 overflow-y-auto p-3" aria-label="Inspector" data-testid="inspector">
-      <h2 className="text-sm font-semibold text-slate-800">{readOnly ? "Details (read-only)" : "Inspector"}</h2>
+      <h2 className="text-sm font-semibold text-ink-800">{readOnly ? "Details (read-only)" : "Inspector"}</h2>
       {body}
     </aside>
   );
@@ -84,7 +84,7 @@ export function Inspector(props: InspectorProps) {
 
 function EmptyHint({ readOnly }: { readOnly: boolean }) {
   return (
-    <div className="flex flex-col gap-2 text-xs text-slate-600">
+    <div className="flex flex-col gap-2 text-xs text-ink-600">
       <p>Select a step or a transition to see {readOnly ? "its details" : "and edit it"}.</p>
       {readOnly ? null : (
         <ul className="list-disc pl-4">

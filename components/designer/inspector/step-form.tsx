@@ -75,7 +75,7 @@ export function StepForm({ name, definition, readOnly, onApplyMeta, onRename, on
         </fieldset>
         <Section title="Sequence entry">
           {isInitial ? (
-            <p className="text-xs text-slate-700" data-testid="is-initial">
+            <p className="text-xs text-ink-700" data-testid="is-initial">
               The sequence starts in this step.
             </p>
           ) : (

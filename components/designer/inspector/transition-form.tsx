@@ -130,7 +130,7 @@ export function TransitionForm({ transitionRef: ref, transition, definition, rea
       </fieldset>
       {isScan && type === "condition" ? (
         <Section title="Priority">
-          <p className="text-xs text-slate-700" data-testid="priority">
+          <p className="text-xs text-ink-700" data-testid="priority">
             Checked {ordinal(ref.index + 1)} of {scanCount} conditions leaving {ref.step}.
           </p>
           <div className="flex gap-2">

@@ -32,7 +32,7 @@ export function ProblemsPanel({ problems, serverProblems = [], onPick }: Problem
   const { errors, warnings } = countBySeverity(problems);
   return (
     <div className="flex flex-col gap-2" data-testid="problems-panel">
-      <p className="text-xs text-slate-600" aria-live="polite">
+      <p className="text-xs text-ink-600" aria-live="polite">
         {problems.length === 0
           ? "No problems found by the static checks."
           : `${errors} error${errors === 1 ? "" : "s"} (block saving), ${warnings} warning${warnings === 1 ? "" : "s"}.`}
@@ -56,7 +56,7 @@ function ProblemList({ problems, onPick, testId }: { problems: readonly Problem[
           <button
             type="button"
             onClick={() => onPick(p)}
-            className="flex w-full items-start gap-2 rounded border border-transparent px-2 py-1 text-left text-sm hover:border-slate-300 hover:bg-slate-50 focus:border-sky-400 focus:outline-none"
+            className="flex w-full items-start gap-2 rounded border border-transparent px-2 py-1 text-left text-sm hover:border-ink-300 hover:bg-ink-50 focus:border-glass-400 focus:outline-none"
             data-testid="problem"
             data-problem-id={p.id}
             data-severity={p.severity}
@@ -69,7 +69,7 @@ function ProblemList({ problems, onPick, testId }: { problems: readonly Problem[
               {p.severity}
             </span>
             <span className="flex-1">{p.message}</span>
-            <span className="shrink-0 font-mono text-[11px] text-slate-500">{whereText(p)}</span>
+            <span className="shrink-0 font-mono text-[11px] text-ink-500">{whereText(p)}</span>
           </button>
         </li>
       ))}

@@ -21,9 +21,9 @@ const r3 = (x: number) => Number(x.toPrecision(3));
 function NumberInput({ label, unit, value, onChange, step, testId }: { label: string; unit: string; value: number; onChange: (v: number) => void; step?: number; testId?: string }) {
   return (
     <label className="flex items-center gap-1 text-xs">
-      <span className="w-24 text-slate-700">{label}</span>
-      <input type="number" value={Number.isFinite(value) ? value : ""} step={step ?? "any"} onChange={(e) => onChange(e.target.valueAsNumber)} className="w-20 rounded border border-slate-300 px-1 py-0.5" data-testid={testId} />
-      <span className="text-slate-500">{unit}</span>
+      <span className="w-24 text-ink-700">{label}</span>
+      <input type="number" value={Number.isFinite(value) ? value : ""} step={step ?? "any"} onChange={(e) => onChange(e.target.valueAsNumber)} className="w-20 rounded border border-ink-300 px-1 py-0.5" data-testid={testId} />
+      <span className="text-ink-500">{unit}</span>
     </label>
   );
 }
@@ -57,8 +57,8 @@ export function CalculatorsPanel({ definition, rig, readOnly, onChange }: Props)
   };
 
   return (
-    <details className="rounded border border-slate-200 p-2" data-testid="calculators">
-      <summary className="cursor-pointer text-xs font-semibold text-slate-700">Calculators</summary>
+    <details className="rounded border border-ink-200 p-2" data-testid="calculators">
+      <summary className="cursor-pointer text-xs font-semibold text-ink-700">Calculators</summary>
       <div className="mt-2 grid gap-4 md:grid-cols-3">
         <fieldset className="flex flex-col gap-1">
           <legend className="text-xs font-semibold">Ti and Te from rate and I:E</legend>
@@ -79,8 +79,8 @@ export function CalculatorsPanel({ definition, rig, readOnly, onChange }: Props)
           <legend className="text-xs font-semibold">Vt from predicted body weight</legend>
           <NumberInput label="Height" unit="cm" value={height} onChange={setHeight} testId="calc-height" />
           <label className="flex items-center gap-1 text-xs">
-            <span className="w-24 text-slate-700">Sex</span>
-            <select value={sex} onChange={(e) => setSex(e.target.value as "male" | "female")} className="rounded border border-slate-300 px-1 py-0.5">
+            <span className="w-24 text-ink-700">Sex</span>
+            <select value={sex} onChange={(e) => setSex(e.target.value as "male" | "female")} className="rounded border border-ink-300 px-1 py-0.5">
               <option value="female">female</option>
               <option value="male">male</option>
             </select>

@@ -49,10 +49,10 @@ export function EditableCell({ value, label, validate, onCommit, disabled, mono,
         data-testid={testId}
         className={`${width ?? "w-full"} rounded border px-1.5 py-0.5 text-sm disabled:border-transparent disabled:bg-transparent ${
           mono ? "font-mono" : ""
-        } ${check.error ? "border-red-600" : "border-slate-300"}`}
+        } ${check.error ? "border-red-600" : "border-ink-300"}`}
       />
       {check.error || check.hint ? (
-        <span id={`${id}-msg`} role={check.error ? "alert" : undefined} className={`text-[11px] ${check.error ? "text-red-700" : "text-slate-500"}`}>
+        <span id={`${id}-msg`} role={check.error ? "alert" : undefined} className={`text-[11px] ${check.error ? "text-red-700" : "text-ink-500"}`}>
           {check.error ?? check.hint}
         </span>
       ) : null}

@@ -36,10 +36,10 @@ export function SettingRow({ name, setting: s, settings, derived, readOnly, high
   };
 
   return (
-    <tr ref={row} className={`align-top ${highlighted ? "bg-sky-50 outline outline-2 outline-sky-400" : ""}`} data-testid={`setting-row-${name}`}>
+    <tr ref={row} className={`align-top ${highlighted ? "bg-glass-50 outline outline-2 outline-glass-400" : ""}`} data-testid={`setting-row-${name}`}>
       <td className="p-1">
         <EditableCell label={`Name of ${name}`} value={name} mono disabled={readOnly} validate={(d) => checkSettingName(d, name, settings)} onCommit={onRename} testId={`setting-name-${name}`} />
-        {s.label ? <span className="text-[11px] text-slate-500">{s.label}</span> : null}
+        {s.label ? <span className="text-[11px] text-ink-500">{s.label}</span> : null}
       </td>
       <td className="p-1">
         <ValueCell name={name} s={s} derived={derived} readOnly={readOnly} onValue={(value) => set({ value })} />
@@ -103,15 +103,15 @@ export function SettingRow({ name, setting: s, settings, derived, readOnly, high
 function ValueCell({ name, s, derived, readOnly, onValue }: { name: string; s: Setting; derived: DerivedValue | undefined; readOnly: boolean; onValue: (v: number | string) => void }) {
   if (s.formula) {
     return (
-      <span className="block px-1.5 py-0.5 text-sm text-slate-700" data-testid={`setting-value-${name}`}>
+      <span className="block px-1.5 py-0.5 text-sm text-ink-700" data-testid={`setting-value-${name}`}>
         {derived?.ok ? `= ${formatQuantity(derived.value, s.unit)}` : <span className="text-red-700">{derived?.error ?? "not computed"}</span>}
-        <span className="ml-1 text-[11px] text-slate-500">derived</span>
+        <span className="ml-1 text-[11px] text-ink-500">derived</span>
       </span>
     );
   }
   if (s.options && s.options.length > 0) {
     return (
-      <select aria-label={`Value of ${name}`} value={String(s.value ?? s.options[0])} disabled={readOnly} onChange={(e) => onValue(e.target.value)} className="rounded border border-slate-300 px-1 py-0.5 text-sm" data-testid={`setting-value-${name}`}>
+      <select aria-label={`Value of ${name}`} value={String(s.value ?? s.options[0])} disabled={readOnly} onChange={(e) => onValue(e.target.value)} className="rounded border border-ink-300 px-1 py-0.5 text-sm" data-testid={`setting-value-${name}`}>
         {s.options.map((o) => (
           <option key={o}>{o}</option>
         ))}

@@ -28,7 +28,7 @@ export function SettingsTable({ definition, rig, readOnly, highlight, onChange }
       <div className="overflow-x-auto">
         <table className="w-full border-collapse text-left text-sm">
           <caption className="sr-only">Settings of the sequence</caption>
-          <thead className="text-xs text-slate-600">
+          <thead className="text-xs text-ink-600">
             <tr>
               <th scope="col" className="p-1 font-medium">Name</th>
               <th scope="col" className="p-1 font-medium">Value</th>
@@ -57,12 +57,12 @@ export function SettingsTable({ definition, rig, readOnly, highlight, onChange }
             ))}
           </tbody>
         </table>
-        {names.length === 0 ? <p className="p-2 text-xs text-slate-500">No settings yet.</p> : null}
+        {names.length === 0 ? <p className="p-2 text-xs text-ink-500">No settings yet.</p> : null}
       </div>
       {readOnly ? null : (
         <button
           type="button"
-          className="self-start rounded border border-slate-300 px-2 py-0.5 text-xs hover:bg-slate-50"
+          className="self-start rounded border border-ink-300 px-2 py-0.5 text-xs hover:bg-ink-50"
           onClick={() => onChange(putSetting(definition, uniqueSettingName(definition), { unit: "", value: 0 }))}
           data-testid="add-setting"
         >

@@ -28,9 +28,9 @@ export interface EditorToolbarProps {
 export function EditorToolbar(p: EditorToolbarProps) {
   const { ref: saveRef, ...saveProps } = p.save;
   return (
-    <div role="toolbar" aria-label="Sequence editor" className="flex flex-wrap items-center gap-x-4 gap-y-2 rounded border border-slate-300 bg-slate-50 px-2 py-1.5">
+    <div role="toolbar" aria-label="Sequence editor" className="flex flex-wrap items-center gap-x-4 gap-y-2 rounded border border-ink-300 bg-ink-50 px-2 py-1.5">
       {p.readOnly ? (
-        <span className="rounded bg-slate-200 px-2 py-0.5 text-xs font-semibold text-slate-700" data-testid="read-only-badge">
+        <span className="rounded bg-ink-200 px-2 py-0.5 text-xs font-semibold text-ink-700" data-testid="read-only-badge">
           Read-only
         </span>
       ) : (
@@ -60,13 +60,13 @@ export function EditorToolbar(p: EditorToolbarProps) {
       <button
         type="button"
         onClick={p.onShowProblems}
-        className={`rounded px-2 py-0.5 text-xs font-medium ${p.counts.errors > 0 ? "bg-red-100 text-red-900" : p.counts.warnings > 0 ? "bg-amber-100 text-amber-900" : "bg-emerald-100 text-emerald-900"}`}
+        className={`rounded px-2 py-0.5 text-xs font-medium ${p.counts.errors > 0 ? "bg-red-100 text-red-900" : p.counts.warnings > 0 ? "bg-amber-100 text-amber-900" : "bg-glass-100 text-glass-900"}`}
         data-testid="problem-count"
       >
         {p.counts.errors} error{p.counts.errors === 1 ? "" : "s"}, {p.counts.warnings} warning{p.counts.warnings === 1 ? "" : "s"}
       </button>
       <div className="ml-auto flex items-center gap-2">
-        <span className="text-xs text-slate-600" data-testid="base-revision">
+        <span className="text-xs text-ink-600" data-testid="base-revision">
           {p.dirty && !p.readOnly ? `revision ${p.baseRevision} + unsaved edits` : `revision ${p.baseRevision}`}
         </span>
         {p.readOnly ? null : <SaveBox ref={saveRef} {...saveProps} />}

@@ -30,7 +30,7 @@ export const SaveBox = forwardRef<HTMLInputElement, SaveBoxProps>(function SaveB
         onChange={(e) => onMessage(e.target.value)}
         placeholder="What changed?"
         maxLength={500}
-        className="w-56 rounded border border-slate-300 px-2 py-0.5 text-xs"
+        className="w-56 rounded border border-ink-300 px-2 py-0.5 text-xs"
         data-testid="save-message"
       />
       <button
@@ -38,7 +38,7 @@ export const SaveBox = forwardRef<HTMLInputElement, SaveBoxProps>(function SaveB
         disabled={saving}
         title={blocking > 0 ? `${blocking} error(s) will block the save` : "Save as a new revision (Ctrl+S)"}
         aria-keyshortcuts="Control+S"
-        className="rounded bg-slate-900 px-3 py-0.5 text-xs font-semibold text-white hover:bg-slate-700 disabled:opacity-50"
+        className="rounded bg-ink-900 px-3 py-0.5 text-xs font-semibold text-white hover:bg-ink-700 disabled:opacity-50"
         data-testid="save-revision"
       >
         {saving ? "Saving…" : dirty ? "Save revision" : "Save (no changes)"}

@@ -15,28 +15,31 @@ export type EditorStatus =
   | { kind: "loaded"; number: number }
   | { kind: "imported"; fileName: string; errors: number; warnings: number }
   | { kind: "import-failed"; fileName: string; errors: string[] }
-  | { kind: "info"; text: string };
+  | { kind: "info"; text: string }
+  | { kind: "draft"; savedAt: string; baseRevision: number; current: number };
 
 export interface StatusBannerProps {
   status: EditorStatus;
+  onRestoreDraft: () => void;
+  onDiscardDraft: () => void;
   onLoadLatest: (n: number) => void;
   onSaveOver: (n: number) => void;
   onShowProblems: () => void;
   onDismiss: () => void;
 }
 
-export function StatusBanner({ status, onLoadLatest, onSaveOver, onShowProblems, onDismiss }: StatusBannerProps) {
+export function StatusBanner({ status, onRestoreDraft, onDiscardDraft, onLoadLatest, onSaveOver, onShowProblems, onDismiss }: StatusBannerProps) {
   if (status.kind === "idle" || status.kind === "saving") return null;
   const tone =
     status.kind === "saved" || status.kind === "loaded" || status.kind === "info" || (status.kind === "imported" && status.errors === 0)
-      ? "border-emerald-300 bg-emerald-50 text-emerald-950"
-      : status.kind === "stale" || status.kind === "imported"
+      ? "border-glass-300 bg-glass-50 text-glass-950"
+      : status.kind === "stale" || status.kind === "imported" || status.kind === "draft"
         ? "border-amber-300 bg-amber-50 text-amber-950"
         : "border-red-300 bg-red-50 text-red-950";
   return (
     <div role="status" aria-live="polite" className={`flex items-start gap-3 rounded border px-3 py-2 text-sm ${tone}`} data-testid="editor-status" data-status={status.kind}>
       <div className="flex-1">
-        <Body status={status} onLoadLatest={onLoadLatest} onSaveOver={onSaveOver} onShowProblems={onShowProblems} />
+        <Body status={status} onRestoreDraft={onRestoreDraft} onDiscardDraft={onDiscardDraft} onLoadLatest={onLoadLatest} onSaveOver={onSaveOver} onShowProblems={onShowProblems} />
       </div>
       <button type="button" onClick={onDismiss} className="text-xs underline" aria-label="Dismiss message">
         dismiss
@@ -45,7 +48,7 @@ export function StatusBanner({ status, onLoadLatest, onSaveOver, onShowProblems,
   );
 }
 
-function Body({ status, onLoadLatest, onSaveOver, onShowProblems }: Omit<StatusBannerProps, "onDismiss">) {
+function Body({ status, onRestoreDraft, onDiscardDraft, onLoadLatest, onSaveOver, onShowProblems }: Omit<StatusBannerProps, "onDismiss">) {
   const link = "ml-2 rounded border border-current px-2 py-0.5 text-xs font-medium";
   switch (status.kind) {
     case "saved":
@@ -106,6 +109,19 @@ function Body({ status, onLoadLatest, onSaveOver, onShowProblems }: Omit<StatusB
       );
     case "info":
       return <span>{status.text}</span>;
+    case "draft":
+      return (
+        <span data-testid="draft-offer">
+          Unsaved edits from {new Date(status.savedAt).toLocaleString()} are kept in this browser
+          {status.baseRevision !== status.current ? ` (made on revision ${status.baseRevision}; this is revision ${status.current})` : ""}.
+          <button type="button" className={link} onClick={onRestoreDraft} data-testid="restore-draft">
+            Restore them
+          </button>
+          <button type="button" className={link} onClick={onDiscardDraft}>
+            Discard
+          </button>
+        </span>
+      );
     default:
       return null;
   }

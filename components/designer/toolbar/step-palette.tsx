@@ -7,7 +7,7 @@ import { KIND_STYLES } from "../canvas/kind-style";
 export function StepPalette({ onAdd, disabled }: { onAdd: (kind: StepKind) => void; disabled?: boolean }) {
   return (
     <div role="group" aria-label="Add a step" className="flex flex-wrap items-center gap-1">
-      <span className="mr-1 text-xs text-slate-600">Add</span>
+      <span className="mr-1 text-xs text-ink-600">Add</span>
       {STEP_KINDS.map((k) => (
         <button
           key={k}
@@ -15,7 +15,7 @@ export function StepPalette({ onAdd, disabled }: { onAdd: (kind: StepKind) => vo
           disabled={disabled}
           onClick={() => onAdd(k)}
           data-testid={`palette-${k}`}
-          className="flex items-center gap-1 rounded border border-slate-300 bg-white px-2 py-0.5 text-xs hover:bg-slate-50 disabled:opacity-50"
+          className="flex items-center gap-1 rounded border border-ink-300 bg-surface px-2 py-0.5 text-xs hover:bg-ink-50 disabled:opacity-50"
         >
           <span
             aria-hidden="true"

@@ -8,7 +8,7 @@ export function ToolButton({ shortcut, title, className, ...rest }: ButtonHTMLAt
       type="button"
       title={shortcut ? `${title} (${shortcut})` : title}
       aria-keyshortcuts={shortcut?.replace(/Ctrl/g, "Control")}
-      className={`rounded border border-slate-300 bg-white px-2 py-0.5 text-xs text-slate-800 hover:bg-slate-50 disabled:cursor-not-allowed disabled:opacity-40 ${className ?? ""}`}
+      className={`rounded border border-ink-300 bg-surface px-2 py-0.5 text-xs text-ink-800 hover:bg-ink-50 disabled:cursor-not-allowed disabled:opacity-40 ${className ?? ""}`}
       {...rest}
     />
   );
