@@ -121,6 +121,37 @@ export class DesignerPage {
     return Number(await saved.getAttribute("data-revision"));
   }
 
+  /** Save expecting a refusal; resolves with the status banner's kind (stale, invalid, refused). */
+  async saveExpectingRefusal(message: string): Promise<string> {
+    await this.page.getByTestId("save-message").fill(message);
+    await this.page.getByTestId("save-revision").click();
+    const status = this.page.locator("[data-testid='editor-status']:not([data-status='saving'])");
+    await status.waitFor();
+    return (await status.getAttribute("data-status")) ?? "";
+  }
+
+  async openSettings(): Promise<void> {
+    await this.page.getByTestId("tab-settings").click();
+    await this.page.getByTestId("settings-table").waitFor();
+  }
+
+  /** Type a value (units allowed) into a setting's value cell and commit it with Enter. */
+  async setSetting(name: string, value: string): Promise<void> {
+    const cell = this.page.getByTestId(`setting-value-${name}`);
+    await cell.fill(value);
+    await cell.press("Enter");
+  }
+
+  settingValue(name: string): Promise<string> {
+    return this.page.getByTestId(`setting-value-${name}`).inputValue();
+  }
+
+  /** Keyboard shortcut, with focus out of any field (a click on the pane would clear the selection). */
+  async shortcut(keys: string): Promise<void> {
+    await this.page.evaluate(() => (document.activeElement as HTMLElement | null)?.blur());
+    await this.page.keyboard.press(keys);
+  }
+
   async problemCountText(): Promise<string> {
     return (await this.page.getByTestId("problem-count").textContent())?.trim() ?? "";
   }

@@ -105,4 +105,59 @@ export const tests = [
     const stepped = await page.getByTestId("preview-time").textContent();
     assert.ok(Math.abs(Number(stepped) - Number(pausedAt) - 0.01) < 0.0051, `${pausedAt} → ${stepped}`);
   }),
+
+  test("a stale save explains itself and loses nothing; blocking problems come back from the server; drafts survive a reload", async ({ page, baseUrl, newContext }) => {
+    await new SignInPage(page, baseUrl).signInAs("engineer");
+    const projectId = await projectIdByName(page, DEMO_PROJECT);
+    const sequenceId = await new NewSequencePage(page, baseUrl).create(projectId, `E2E conflict ${Date.now()}`, "assist-volume");
+    const first = new DesignerPage(page, baseUrl);
+    await first.waitReady();
+
+    const otherContext = await newContext();
+    const otherPage = await otherContext.newPage();
+    await new SignInPage(otherPage, baseUrl).signInAs("engineer");
+    const second = new DesignerPage(otherPage, baseUrl);
+    await second.goto(projectId, sequenceId);
+
+    // The second adds a step with no way out: the server refuses with 422 and lists why (checked only on a current base).
+    const stuck = await second.addStep("hold");
+    assert.equal(await second.saveExpectingRefusal("with a dead end"), "invalid");
+    const serverProblems = otherPage.getByTestId("server-problems");
+    await serverProblems.waitFor();
+    assert.match((await serverProblems.textContent()) ?? "", new RegExp(stuck));
+    await second.selectStep(stuck);
+    await second.shortcut("Delete");
+    assert.ok(!(await second.stepNames()).includes(stuck));
+
+    // The first engineer saves revision 2 (PEEP typed with a unit: 0.1 psi = 7.03 cmH2O).
+    await first.openSettings();
+    await first.setSetting("PEEP", "0.1 psi");
+    assert.equal(await first.settingValue("PEEP"), "7.0307");
+    assert.equal(await first.save("PEEP 7"), 2);
+
+    // Then a valid edit on the stale base: 409, explained, edits kept.
+    await second.openSettings();
+    await second.setSetting("Vt", "450");
+    assert.equal(await second.saveExpectingRefusal("Vt 450"), "stale");
+    assert.equal(await second.settingValue("Vt"), "450");
+    await otherPage.getByTestId("load-latest").click();
+    await eventually(async () => assert.equal(await second.baseRevision(), 2));
+    assert.equal(await second.settingValue("Vt"), "400");
+    assert.equal(await second.settingValue("PEEP"), "7.0307");
+    // One undo brings the second engineer's own version back; saved on top of revision 2.
+    await second.shortcut("Control+z");
+    assert.equal(await second.settingValue("Vt"), "450");
+    assert.equal(await second.save("Vt 450 on top of r2"), 3);
+
+    // Unsaved edits survive a reload, offered back from the browser's storage.
+    await second.setSetting("RR", "18");
+    await otherPage.waitForTimeout(1200);
+    // Leaving with unsaved edits asks first (beforeunload): say yes.
+    otherPage.once("dialog", (d) => void d.accept());
+    await second.goto(projectId, sequenceId);
+    await otherPage.getByTestId("draft-offer").waitFor();
+    await otherPage.getByTestId("restore-draft").click();
+    await second.openSettings();
+    assert.equal(await second.settingValue("RR"), "18");
+  }),
 ];
