@@ -296,15 +296,17 @@ function nearlyEqual(a: number, b: number): boolean {
   return diff <= ABS_TOL || diff <= REL_TOL * Math.max(Math.abs(a), Math.abs(b));
 }
 
+// mathjs rounds halves away from zero, and floor/ceil snap to an integer within its tolerance.
+const roundAway = (x: number) => (x < 0 ? -Math.round(-x) : Math.round(x));
 const UNARY_FN: Record<string, (x: number) => number> = {
   abs: Math.abs,
   sqrt: Math.sqrt,
   exp: Math.exp,
   log: Math.log,
   log10: Math.log10,
-  floor: Math.floor,
-  ceil: Math.ceil,
-  round: Math.round,
+  floor: (x) => (nearlyEqual(x, roundAway(x)) ? roundAway(x) : Math.floor(x)),
+  ceil: (x) => (nearlyEqual(x, roundAway(x)) ? roundAway(x) : Math.ceil(x)),
+  round: roundAway,
   sign: Math.sign,
   sin: Math.sin,
   cos: Math.cos,
@@ -312,8 +314,8 @@ const UNARY_FN: Record<string, (x: number) => number> = {
 };
 
 function mathjsMod(x: number, y: number): number {
-  // mathjs mod: x - y * floor(x / y), and mod(x, 0) = x.
-  return y === 0 ? x : x - y * Math.floor(x / y);
+  // mathjs mod: x - y * floor(x / y) with its tolerant floor, and mod(x, 0) = x.
+  return y === 0 ? x : x - y * UNARY_FN.floor(x / y);
 }
 
 function toThunk(n: Anode, layout: SlotLayout, slots: Float64Array): Thunk | null {

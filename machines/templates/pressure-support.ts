@@ -71,7 +71,7 @@ export const pressureSupport: SequenceDefinitionInput = {
     Te: { label: "Backup expiratory time", unit: "s", formula: "60 / RR - Ti", min: 0.1, max: 60 },
   },
   monitors: [
-    lowPressureMonitor("min(0.5, rise + 0.3)", "PEEP + 0.5 * min(PS, Pinsp)"),
+    lowPressureMonitor("0.5 * rise + 0.05", "PEEP + 0.25 * min(PS, Pinsp)"),
     apneaMonitor("apnea", "Apnea: no breath for the apnea time; backup breaths started"),
   ],
   machine: {

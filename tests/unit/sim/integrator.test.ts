@@ -2,15 +2,20 @@
  * The fixed-step integrator (exponential lung update, implicit circuit node) against mathjs `solveODE`
  * (RK45, adaptive, tight tolerance) on the same equations (ENGINE.md "Integration").
  */
-import { solveODE } from "mathjs";
+import * as mathjs from "mathjs";
 import { describe, expect, it } from "vitest";
 import { CMD_FLOW, CMD_RELEASE } from "@/lib/sim/plant";
 import { run, sampleAt } from "./helpers";
 import { makePlant } from "./plant-helpers";
 
+// mathjs 15 has solveODE but its type declarations do not list it.
+const { solveODE } = mathjs as unknown as {
+  solveODE: (f: (t: number, y: number[]) => number[], span: number[], y0: number[], opts: object) => { y: number[][] };
+};
+
 /** State at time `to` from y0 at `from`, by solveODE at tol 1e-10 (reference). */
 function reference(f: (t: number, y: number[]) => number[], from: number, to: number, y0: number[]): number[] {
-  const sol = solveODE(f, [from, to], y0, { tol: 1e-10, maxStep: 0.01 }) as unknown as { y: number[][] };
+  const sol = solveODE(f, [from, to], y0, { tol: 1e-10, maxStep: 0.01 });
   return sol.y[sol.y.length - 1];
 }
 
