@@ -72,9 +72,11 @@ export function inletValveFlowLps(pawCmH2O: number, crackingCmH2O: number, resis
 /**
  * Paw at the end of one step (backward Euler), given the previous Paw, the driver inflow qIn (L/s,
  * constant over the step), the lung as V̇ = g·(Paw − back) (see lung.ts; back = Pel(V) − Pmus) and whether
- * the PEEP valve path is open.
+ * the PEEP valve path is open. The result is written to out[0]: returning a double from a function the JIT
+ * does not inline allocates a heap number per step.
  */
 export function solveCircuitNodeCmH2O(
+  out: Float64Array,
   pawPrevCmH2O: number,
   dtS: number,
   c: CircuitParams,
@@ -82,42 +84,69 @@ export function solveCircuitNodeCmH2O(
   qInLps: number,
   lungAdmittance: number,
   lungBackPressureCmH2O: number,
-): number {
+): void {
   const cdt = c.complianceLPerCmH2O / dtS;
   const rExp = c.expiratoryResistanceCmH2OPerLps;
+  const piecewiseLinear = c.leakKind !== LEAK_ORIFICE;
   let x = pawPrevCmH2O;
   let lo = -Infinity;
   let hi = Infinity;
   for (let iter = 0; iter < 60; iter++) {
     let g = cdt * (x - pawPrevCmH2O) + lungAdmittance * (x - lungBackPressureCmH2O) - qInLps;
     let slope = cdt + lungAdmittance;
+    // Which valves conduct at x (bit set): with only linear paths, a Newton step that stays in the same
+    // set of conducting paths lands exactly on the root.
+    let active = 0;
     if (valveOpen && x > c.peepValveCmH2O) {
       g += (x - c.peepValveCmH2O) / rExp;
       slope += 1 / rExp;
+      active |= 1;
     }
     if (x > c.reliefOpenCmH2O) {
       g += (x - c.reliefOpenCmH2O) / c.reliefResistanceCmH2OPerLps;
       slope += 1 / c.reliefResistanceCmH2OPerLps;
+      active |= 2;
     }
     if (c.leakKind !== LEAK_NONE) {
       g += leakFlowLps(x, c.leakKind, c.leakCoefficient);
       slope += leakSlope(x, c.leakKind, c.leakCoefficient);
+      if (x > 0) active |= 4;
     }
     if (x < -c.inletCrackingCmH2O) {
       g -= (-c.inletCrackingCmH2O - x) / c.inletResistanceCmH2OPerLps;
       slope += 1 / c.inletResistanceCmH2OPerLps;
+      active |= 8;
+    }
+    if (g === 0) {
+      out[0] = x;
+      return;
     }
     if (g > 0) hi = x;
-    else if (g < 0) lo = x;
-    else return x;
+    else lo = x;
     let next = x - g / slope;
     // Newton can cycle across the valves' kinks: fall back to bisection inside the bracket.
     if (!(next > lo && next < hi)) {
-      if (Number.isFinite(lo) && Number.isFinite(hi)) next = 0.5 * (lo + hi);
+      if (lo > -Infinity && hi < Infinity) next = 0.5 * (lo + hi);
       else next = g > 0 ? Math.max(next, x - 1000) : Math.min(next, x + 1000);
     }
-    if (Math.abs(next - x) <= 1e-10 * (1 + Math.abs(x))) return next;
+    if (piecewiseLinear && activeAt(next, c, valveOpen) === active) {
+      out[0] = next;
+      return;
+    }
+    if (Math.abs(next - x) <= 1e-10 * (1 + Math.abs(x))) {
+      out[0] = next;
+      return;
+    }
     x = next;
   }
-  return x;
+  out[0] = x;
+}
+
+function activeAt(x: number, c: CircuitParams, valveOpen: boolean): number {
+  let a = 0;
+  if (valveOpen && x > c.peepValveCmH2O) a |= 1;
+  if (x > c.reliefOpenCmH2O) a |= 2;
+  if (c.leakKind !== LEAK_NONE && x > 0) a |= 4;
+  if (x < -c.inletCrackingCmH2O) a |= 8;
+  return a;
 }

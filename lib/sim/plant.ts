@@ -117,6 +117,8 @@ export class Plant {
   private readonly aPaw: number;
   private readonly aFlow: number;
   private readonly gLinear: number;
+  private readonly scratch = new Float64Array(1);
+  private pmusBuf = new Float64Array(16);
 
   constructor(p: PlantParams) {
     this.p = p;
@@ -160,6 +162,25 @@ export class Plant {
     this.accReliefL = 0;
   }
 
+  /**
+   * Patient effort at the mid-point of each of the next n steps. A small loop of its own, so the JIT inlines
+   * the effort shape here instead of calling it (and boxing its result) from the long step loop.
+   */
+  private fillPmus(t0S: number, n: number): Float64Array {
+    if (this.pmusBuf.length < n) this.pmusBuf = new Float64Array(n);
+    const buf = this.pmusBuf;
+    const eff = this.p.effort;
+    const dt = this.p.dtS;
+    let cursor = this.effortCursor;
+    for (let i = 0; i < n; i++) {
+      const tm = t0S + (i + 0.5) * dt;
+      while (cursor + 1 < eff.count && eff.onsetS[cursor + 1] <= tm) cursor++;
+      buf[i] = cursor >= 0 ? pmusAt(eff, cursor, tm) : 0;
+    }
+    this.effortCursor = cursor;
+    return buf;
+  }
+
   /** Advance n physics steps from t0 (s). */
   run(t0S: number, n: number): void {
     const p = this.p;
@@ -167,7 +188,6 @@ export class Plant {
     const lung = p.lung;
     const circ = p.circuit;
     const drv = p.driver;
-    const eff = p.effort;
     const wave = this.wave;
     const linear = lung.e2CmH2OPerL2 === 0;
     const kind = this.cmdKind;
@@ -178,7 +198,6 @@ export class Plant {
     let rate = this.pulseRateHz;
     let pawLag = this.pawLaggedCmH2O;
     let flowLag = this.flowLaggedLpm;
-    let cursor = this.effortCursor;
     let flow = this.flowLps;
     let pmus = this.pmusCmH2O;
     let pip = this.accPipCmH2O;
@@ -191,13 +210,12 @@ export class Plant {
     let counter = this.stepCounter;
     const every = p.sampleEvery;
     const cap = p.capacity;
+    const scratch = this.scratch;
+    const pmusBuf = this.fillPmus(t0S, n);
 
     for (let i = 0; i < n; i++) {
       const t1 = t0S + (i + 1) * dt;
-      const tm = t1 - 0.5 * dt;
-      // Patient effort at mid-step.
-      while (cursor + 1 < eff.count && eff.onsetS[cursor + 1] <= tm) cursor++;
-      pmus = cursor >= 0 ? pmusAt(eff, cursor, tm) : 0;
+      pmus = pmusBuf[i];
       // Lung, linearised over the step.
       const pel = elastic(v, lung.p0CmH2O, lung.e1CmH2OPerL, lung.e2CmH2OPerL2);
       const g = linear
@@ -245,7 +263,8 @@ export class Plant {
             arm = armNext;
           }
         }
-        pawNext = solveNode(paw, dt, circ, valveOpen, qIn, g, back);
+        solveNode(scratch, paw, dt, circ, valveOpen, qIn, g, back);
+        pawNext = scratch[0];
         pawStep = pawNext;
       }
       paw = pawNext;
@@ -284,7 +303,6 @@ export class Plant {
     this.pulseRateHz = rate;
     this.pawLaggedCmH2O = pawLag;
     this.flowLaggedLpm = flowLag;
-    this.effortCursor = cursor;
     this.accPipCmH2O = pip;
     this.accVtiL = vti;
     this.accVteL = vte;

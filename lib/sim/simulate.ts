@@ -73,8 +73,25 @@ interface PreparedRun {
   durationS: number;
 }
 
+/**
+ * Compiled sequences by definition object: the designer's preview and the benchmark re-run the same
+ * definition; compiling (zod, formulas, XState setup) costs more than a short run. Definitions are
+ * treated as immutable once simulated (edit a copy).
+ */
+const compiled = new WeakMap<object, CompiledSequence>();
+function compileCached(definition: unknown): CompiledSequence {
+  if (definition && typeof definition === "object") {
+    const hit = compiled.get(definition);
+    if (hit) return hit;
+    const c = compile(definition);
+    compiled.set(definition, c);
+    return c;
+  }
+  return compile(definition);
+}
+
 function prepare(opts: SimOptions): PreparedRun {
-  const sequence = compile(opts.definition);
+  const sequence = compileCached(opts.definition);
   const settings = sequence.resolveSettings(opts.settings);
   const patient = parseOrBadInput("patient", () => patientSchema.parse(opts.patient));
   const ideal = opts.rig === "ideal";
@@ -162,7 +179,7 @@ const EXPIRATORY: ReadonlySet<StepKind> = new Set(["exhale", "wait-for-trigger",
 /** Start a simulation that can be advanced scan by scan. Throws SequenceError or SimError on bad input. */
 export function createSimulation(opts: SimOptions): LiveSimulation {
   const run = prepare(opts);
-  const { sequence, settings, rig, ideal, dtS, scanS, stepsPerScan, durationS } = run;
+  const { sequence, settings, rig, ideal, scanS, stepsPerScan, durationS } = run;
   const seed = opts.seed ?? 1;
   const effortRng: Rng = createRng(opts.effortSeed ?? seed);
   const noiseRng: Rng = createRng(seed * 7919 + 17);

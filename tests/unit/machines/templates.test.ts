@@ -19,7 +19,14 @@ function targets(def: SequenceDefinition, step: string): string[] {
 function reachable(def: SequenceDefinition): Set<string> {
   const seen = new Set([def.machine.initial]);
   const todo = [def.machine.initial];
-  while (todo.length) for (const t of targets(def, todo.pop() as string)) if (!seen.has(t)) (seen.add(t), todo.push(t));
+  while (todo.length) {
+    for (const t of targets(def, todo.pop() as string)) {
+      if (!seen.has(t)) {
+        seen.add(t);
+        todo.push(t);
+      }
+    }
+  }
   return seen;
 }
 
