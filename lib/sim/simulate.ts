@@ -74,20 +74,25 @@ interface PreparedRun {
 }
 
 /**
- * Compiled sequences by definition object: the designer's preview and the benchmark re-run the same
- * definition; compiling (zod, formulas, XState setup) costs more than a short run. Definitions are
- * treated as immutable once simulated (edit a copy).
+ * Recently compiled sequences, keyed by the definition's JSON: the designer's preview and the benchmark
+ * re-run the same definition, and compiling (zod, formulas, XState setup) costs more than a short run.
+ * Keyed by content, not identity, so a definition edited in place is recompiled.
  */
-const compiled = new WeakMap<object, CompiledSequence>();
+const COMPILE_CACHE_SIZE = 16;
+const compiled = new Map<string, CompiledSequence>();
 function compileCached(definition: unknown): CompiledSequence {
-  if (definition && typeof definition === "object") {
-    const hit = compiled.get(definition);
-    if (hit) return hit;
-    const c = compile(definition);
-    compiled.set(definition, c);
-    return c;
+  let key: string;
+  try {
+    key = JSON.stringify(definition);
+  } catch {
+    return compile(definition);
   }
-  return compile(definition);
+  const hit = compiled.get(key);
+  if (hit) return hit;
+  const c = compile(definition);
+  if (compiled.size >= COMPILE_CACHE_SIZE) compiled.delete(compiled.keys().next().value as string);
+  compiled.set(key, c);
+  return c;
 }
 
 function prepare(opts: SimOptions): PreparedRun {
