@@ -1,9 +1,10 @@
 /**
- * Auto-layout of a sequence's step graph with ELK's layered algorithm (left to right).
+ * Auto-layout of a sequence's step graph with ELK's layered algorithm, top to bottom.
  *
- * The initial step is placed first and cycles are broken depth-first from it, so the breath cycle
- * reads left to right from the entry step and the return edge (exhale → inhale) is the one drawn
- * backwards. ELK is loaded on first use: it is large, and most page views never lay out.
+ * Top to bottom because steps are wider than tall: a breath cycle of five steps stacked fits the
+ * editor's canvas at twice the zoom of the same cycle in a row. The initial step is placed first and
+ * cycles are broken depth-first from it, so the cycle reads downwards from the entry step and the
+ * return edge (exhale → inhale) is the one drawn back up (the canvas loops it round the side). ELK is loaded on first use: it is large, and most page views never lay out.
  */
 import type { ElkNode } from "elkjs/lib/elk-api";
 import type { SequenceDefinition, SequenceLayout } from "@/machines/schema";
@@ -11,13 +12,14 @@ import { definitionToGraph, STEP_NODE_SIZE } from "@/machines/graph";
 
 const LAYOUT_OPTIONS: Record<string, string> = {
   "elk.algorithm": "layered",
-  "elk.direction": "RIGHT",
+  "elk.direction": "DOWN",
   "elk.layered.cycleBreaking.strategy": "DEPTH_FIRST",
   "elk.layered.considerModelOrder.strategy": "NODES_AND_EDGES",
   "elk.layered.nodePlacement.strategy": "NETWORK_SIMPLEX",
-  // Room between layers for edge labels (trigger text sits at the middle of each edge).
-  "elk.layered.spacing.nodeNodeBetweenLayers": "150",
-  "elk.spacing.nodeNode": "70",
+  // Room between rows for edge labels (trigger text sits at the middle of each edge).
+  "elk.layered.spacing.nodeNodeBetweenLayers": "70",
+  // Room beside steps for the edges that loop round the side.
+  "elk.spacing.nodeNode": "110",
   "elk.spacing.edgeNode": "30",
   "elk.layered.mergeEdges": "true",
 };

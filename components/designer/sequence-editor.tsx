@@ -263,6 +263,7 @@ function EditorBody({ sequenceId, sequenceName, revision, rig, readOnly }: Seque
               decorations={decorations}
               onMoveSteps={actions.moveSteps}
               onConnect={actions.connect}
+              minimap={Object.keys(doc.definition.machine.states).length > 10}
               label={`Steps of ${sequenceName}`}
             />
           </div>

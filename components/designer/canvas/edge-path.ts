@@ -40,6 +40,11 @@ function cubic(
   };
 }
 
+/** Parallel vertical edges have labels at the same height: stack them one label-height apart. */
+function stackLabel(g: EdgeGeometry, off: number): EdgeGeometry {
+  return { ...g, labelY: g.labelY + off * 0.9 };
+}
+
 /** Offset of edge `index` of `count` around the middle: 0, then ±FAN… */
 export function fanOffset(index: number, count: number): number {
   return (index - (count - 1) / 2) * FAN;
@@ -75,10 +80,24 @@ export function edgeGeometry(source: Box, target: Box, index: number, count: num
     const b: [number, number] = [target.x + target.width / 2 + off * 0.5, target.y + target.height];
     return cubic(a, [a[0], depth + (depth - a[1]) * 0.33], [b[0], depth + (depth - b[1]) * 0.33], b);
   }
-  // Overlapping columns: vertical connection.
+  // Overlapping columns: the usual case of a top-to-bottom layout.
   const down = target.y > source.y;
-  const a: [number, number] = [source.x + source.width / 2 + off, down ? source.y + source.height : source.y];
-  const b: [number, number] = [target.x + target.width / 2 + off, down ? target.y : target.y + target.height];
-  const dy = Math.max(30, Math.abs(b[1] - a[1]) / 2) * (down ? 1 : -1);
-  return cubic(a, [a[0] + off, a[1] + dy], [b[0] + off, b[1] - dy], b);
+  const rowGap = down ? target.y - (source.y + source.height) : source.y - (target.y + target.height);
+  if (down && rowGap < source.height * 1.6) {
+    // The next row: straight down, bottom to top.
+    const a: [number, number] = [source.x + source.width / 2 + off, source.y + source.height];
+    const b: [number, number] = [target.x + target.width / 2 + off, target.y];
+    const dy = Math.max(30, (b[1] - a[1]) / 2);
+    return stackLabel(cubic(a, [a[0], a[1] + dy], [b[0], b[1] - dy], b), off);
+  }
+  // Skipping rows (down) or returning (up): loop round the side so the curve never crosses the steps
+  // in between — down on the left, back up on the right, as a cycle reads clockwise.
+  const side = down ? -1 : 1;
+  const span = Math.abs(tMidY - sMidY);
+  const edgeX = side < 0 ? Math.min(source.x, target.x) : Math.max(source.x + source.width, target.x + target.width);
+  // Parallel loops nest (signed offset) rather than share one track.
+  const reach = edgeX + side * (LOOP + Math.min(120, span * 0.12) + FAN + off * 1.5);
+  const a: [number, number] = [side < 0 ? source.x : source.x + source.width, sMidY + off * 0.3];
+  const b: [number, number] = [side < 0 ? target.x : target.x + target.width, tMidY + off * 0.3];
+  return stackLabel(cubic(a, [reach, a[1]], [reach, b[1]], b), off);
 }

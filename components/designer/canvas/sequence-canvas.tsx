@@ -42,6 +42,8 @@ export interface SequenceCanvasProps {
   decorations?: CanvasDecorations;
   onMoveSteps?: (positions: Record<string, { x: number; y: number }>) => void;
   onConnect?: (source: string, target: string) => void;
+  /** Show the overview map (worth it for larger sequences; it covers part of a small canvas). */
+  minimap?: boolean;
   /** Accessible name of the canvas region. */
   label: string;
   testId?: string;
@@ -164,7 +166,7 @@ export function SequenceCanvas(props: SequenceCanvasProps) {
         multiSelectionKeyCode={["Meta", "Control"]}
         selectionKeyCode="Shift"
         fitView
-        fitViewOptions={{ padding: 0.25 }}
+        fitViewOptions={{ padding: 0.18 }}
         minZoom={0.2}
         maxZoom={2.5}
         snapToGrid
@@ -172,14 +174,16 @@ export function SequenceCanvas(props: SequenceCanvasProps) {
       >
         <Background variant={BackgroundVariant.Dots} gap={16} size={1} color="#c9d3d8" />
         <Controls showInteractive={false} position="bottom-left" />
-        <MiniMap
-          pannable
-          zoomable
-          position="bottom-right"
-          nodeColor={(n) => KIND_STYLES[(n as StepViewNode).data.meta.kind].fill}
-          nodeStrokeColor={(n) => KIND_STYLES[(n as StepViewNode).data.meta.kind].stroke}
-          ariaLabel="Overview of the sequence"
-        />
+        {props.minimap ? (
+          <MiniMap
+            pannable
+            zoomable
+            position="bottom-right"
+            nodeColor={(n) => KIND_STYLES[(n as StepViewNode).data.meta.kind].fill}
+            nodeStrokeColor={(n) => KIND_STYLES[(n as StepViewNode).data.meta.kind].stroke}
+            ariaLabel="Overview of the sequence"
+          />
+        ) : null}
       </ReactFlow>
     </div>
   );

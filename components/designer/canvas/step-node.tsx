@@ -46,11 +46,11 @@ function StepNodeComponent({ data, selected }: NodeProps<StepViewNode>) {
         ring={ring}
       />
       <div className="absolute inset-0 flex flex-col justify-center gap-0.5 pl-6 pr-7 pt-1">
-        <div className="flex items-center gap-1.5">
-          <span className="truncate text-[13px] font-semibold leading-tight">{data.meta.label ?? data.name}</span>
-          {data.meta.label ? <span className="truncate font-mono text-[10px] opacity-60">{data.name}</span> : null}
-        </div>
-        <span className="text-[10px] uppercase tracking-wide opacity-70">{STEP_KIND_LABELS[data.meta.kind]}</span>
+        <span className="truncate text-[13px] font-semibold leading-tight">{data.meta.label ?? data.name}</span>
+        <span className="truncate text-[10px] opacity-70">
+          <span className="uppercase tracking-wide">{STEP_KIND_LABELS[data.meta.kind]}</span>
+          {data.meta.label ? <span className="font-mono"> · {data.name}</span> : null}
+        </span>
         <span className="truncate font-mono text-[10px] opacity-80">{commandSummary(data.meta.command)}</span>
       </div>
       {data.initial ? <EntryMark /> : null}

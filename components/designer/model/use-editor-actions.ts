@@ -27,7 +27,7 @@ export function useEditorActions({ editor, canvasBoxRef, readOnly, onStatus }: D
   const { doc, selection, apply, select } = editor;
 
   const fit = useCallback(() => {
-    void flow.fitView({ padding: 0.25, duration: 250 });
+    void flow.fitView({ padding: 0.18, duration: 250 });
   }, [flow]);
 
   /** The flow position at the middle of the visible canvas, nudged so new steps do not stack exactly. */

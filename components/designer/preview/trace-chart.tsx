@@ -35,15 +35,16 @@ function stepMarks(buffer: TraceBuffer) {
     ctx.setLineDash([3 * dpr, 3 * dpr]);
     ctx.lineWidth = dpr;
     const min = u.scales.x.min ?? 0;
-    for (const m of buffer.marks) {
-      if (m.t < min) continue;
+    buffer.marks.forEach((m, i) => {
+      if (m.t < min) return;
       const x = Math.round(u.valToPos(m.t, "x", true));
       ctx.beginPath();
       ctx.moveTo(x, bbox.top);
       ctx.lineTo(x, bbox.top + bbox.height);
       ctx.stroke();
-      ctx.fillText(m.step, x + 3 * dpr, bbox.top + 10 * dpr);
-    }
+      // Alternate two label rows: a short step (a 0.2 s pause) would otherwise print over the next.
+      ctx.fillText(m.step, x + 3 * dpr, bbox.top + (i % 2 === 0 ? 10 : 22) * dpr);
+    });
     ctx.restore();
   };
 }
@@ -60,7 +61,8 @@ export const TraceChart = forwardRef<TraceChartHandle, TraceChartProps>(function
       height,
       pxAlign: false,
       cursor: { show: false },
-      legend: { show: true },
+      // The cursor is off (the trace scrolls), so uPlot's value legend would only show dashes.
+      legend: { show: false },
       scales: { x: { time: false }, paw: { auto: true }, flow: { auto: true } },
       series: [
         { label: "t (s)" },
@@ -101,5 +103,20 @@ export const TraceChart = forwardRef<TraceChartHandle, TraceChartProps>(function
     [buffer, windowS],
   );
 
-  return <div ref={box} className="w-full" data-testid="preview-trace" role="img" aria-label="Airway pressure and flow over the last seconds of the preview" />;
+  return (
+    <figure className="flex flex-col gap-1">
+      <div ref={box} className="w-full" data-testid="preview-trace" role="img" aria-label="Airway pressure and flow over the last seconds of the preview, step changes marked" />
+      <figcaption className="flex gap-4 text-[11px] text-ink-600">
+        <span className="flex items-center gap-1">
+          <span aria-hidden="true" className="inline-block h-0.5 w-4" style={{ background: PAW_COLOUR }} /> airway pressure, cmH2O (left)
+        </span>
+        <span className="flex items-center gap-1">
+          <span aria-hidden="true" className="inline-block h-0.5 w-4" style={{ background: FLOW_COLOUR }} /> flow, L/min (right)
+        </span>
+        <span className="flex items-center gap-1">
+          <span aria-hidden="true" className="inline-block h-3 border-l border-dashed" style={{ borderColor: MARK_COLOUR }} /> step change
+        </span>
+      </figcaption>
+    </figure>
+  );
 });

@@ -171,15 +171,15 @@ describe("graphToDefinition", () => {
 });
 
 describe("autoLayout (machines/layout.ts)", () => {
-  it("places every step, the initial one leftmost, without overlaps", async () => {
+  it("places every step, the initial one on top, without overlaps", async () => {
     const { autoLayout } = await import("@/machines/layout");
     const { STEP_NODE_SIZE } = await import("@/machines/graph");
     const layout = await autoLayout(assist);
     const entries = Object.entries(layout.nodes);
     expect(entries.map(([k]) => k).sort()).toEqual(["exhale", "inhale", "orphan", "standby"]);
-    const minX = Math.min(...entries.map(([, p]) => p.x));
-    expect(layout.nodes.standby.x).toBe(minX);
-    expect(layout.nodes.inhale.x).toBeLessThan(layout.nodes.exhale.x);
+    const minY = Math.min(...entries.map(([, p]) => p.y));
+    expect(layout.nodes.standby.y).toBe(minY);
+    expect(layout.nodes.inhale.y).toBeLessThan(layout.nodes.exhale.y);
     for (const [a, pa] of entries)
       for (const [b, pb] of entries) {
         if (a >= b) continue;
