@@ -38,7 +38,8 @@ export class SignInPage {
   async signInExpectingError(email: string, password: string): Promise<string> {
     await this.fill(email, password);
     await this.page.getByRole("button", { name: "Sign in" }).click();
-    const alert = this.page.getByRole("alert").first();
+    // Scoped to the form: Next's route announcer is also role="alert" (and empty).
+    const alert = this.page.getByRole("form", { name: "Sign in" }).getByRole("alert").filter({ hasText: /\S/ }).first();
     await alert.waitFor();
     return (await alert.textContent())?.trim() ?? "";
   }
