@@ -46,7 +46,7 @@ describe("settings table", () => {
     const { onChange } = renderTable();
     const cell = screen.getByTestId("setting-value-PEEP");
     fireEvent.change(cell, { target: { value: "5 mL" } });
-    expect(screen.getByRole("alert")).toHaveTextContent(/cannot be converted to cmH2O/);
+    expect(screen.getByRole("alert")).toHaveTextContent(/expected a pressure \(cmH2O\)/i);
     fireEvent.blur(cell);
     fireEvent.change(cell, { target: { value: "0.5 psi" } });
     expect(screen.getByRole("alert")).toHaveTextContent(/above the maximum, 25 cmH2O/);
@@ -107,9 +107,12 @@ describe("settings table", () => {
     fireEvent.change(screen.getByTestId("calc-rr"), { target: { value: "20" } });
     fireEvent.change(screen.getByTestId("calc-ie"), { target: { value: "2" } });
     expect(screen.getByTestId("calc-times")).toHaveTextContent("Ti = 1 s, Te = 2 s");
-    fireEvent.change(screen.getByTestId("calc-height"), { target: { value: "170" } });
-    // female PBW 45.5 + 0.91 × (170 − 152.4) = 61.5 kg; × 6 mL/kg = 369 mL
-    expect(screen.getByTestId("calc-vt")).toHaveTextContent("PBW = 61.5 kg, Vt = 369 mL");
+    fireEvent.change(screen.getByTestId("calc-ie"), { target: { value: "1:2" } });
+    fireEvent.change(screen.getByTestId("calc-height"), { target: { value: "67 in" } });
+    // ARDSNet: female 45.5 + 2.3 × (67 − 60) = 61.6 kg; × 6 mL/kg = 370 mL
+    expect(screen.getByTestId("calc-vt")).toHaveTextContent("PBW = 61.6 kg, Vt = 370 mL");
     expect(screen.getByTestId("calc-pulse")).toHaveTextContent(/Hz/);
+    fireEvent.change(screen.getByTestId("calc-flow"), { target: { value: "30 kg" } });
+    expect(screen.getByTestId("calc-pulse")).toHaveTextContent(/expected a flow/);
   });
 });
