@@ -152,6 +152,33 @@ export class DesignerPage {
     await this.page.keyboard.press(keys);
   }
 
+  /** Click steps with Ctrl held: React Flow's multi-selection. */
+  async selectSteps(steps: string[]): Promise<void> {
+    await this.node(steps[0]).click();
+    for (const s of steps.slice(1)) await this.node(s).click({ modifiers: ["Control"] });
+  }
+
+  async selectedSteps(): Promise<string[]> {
+    return this.page.locator(".react-flow__node.selected").evaluateAll((els) => els.map((e) => e.getAttribute("data-id") ?? ""));
+  }
+
+  /** Import a definition file through the file picker. */
+  async importFile(name: string, text: string): Promise<string> {
+    await this.page.getByTestId("import-file").setInputFiles({ name, mimeType: "application/json", buffer: Buffer.from(text) });
+    const status = this.page.getByTestId("editor-status");
+    await status.waitFor();
+    return (await status.getAttribute("data-status")) ?? "";
+  }
+
+  /** Export the definition; resolves with the downloaded file's name and text. */
+  async exportFile(): Promise<{ name: string; text: string }> {
+    const [download] = await Promise.all([this.page.waitForEvent("download"), this.page.getByTestId("export-json").click()]);
+    const stream = await download.createReadStream();
+    const chunks: Buffer[] = [];
+    for await (const c of stream) chunks.push(c as Buffer);
+    return { name: download.suggestedFilename(), text: Buffer.concat(chunks).toString("utf8") };
+  }
+
   async problemCountText(): Promise<string> {
     return (await this.page.getByTestId("problem-count").textContent())?.trim() ?? "";
   }

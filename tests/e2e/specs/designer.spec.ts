@@ -160,4 +160,64 @@ export const tests = [
     await second.openSettings();
     assert.equal(await second.settingValue("RR"), "18");
   }),
+
+  test("canvas keys: multi-select, copy/paste, delete, undo/redo, fit and layout; JSON export and import; old revisions read-only", async ({ page, baseUrl }) => {
+    await new SignInPage(page, baseUrl).signInAs("engineer");
+    const projectId = await projectIdByName(page, DEMO_PROJECT);
+    const sequenceId = await new NewSequencePage(page, baseUrl).create(projectId, `E2E keys ${Date.now()}`, "assist-volume");
+    const designer = new DesignerPage(page, baseUrl);
+    await designer.waitReady();
+    const original = (await designer.stepNames()).sort();
+
+    await designer.selectSteps(["inhale", "hold"]);
+    assert.deepEqual((await designer.selectedSteps()).sort(), ["hold", "inhale"]);
+    await designer.shortcut("Control+c");
+    await designer.shortcut("Control+v");
+    await eventually(async () => assert.deepEqual((await designer.stepNames()).sort(), [...original, "hold2", "inhale2"].sort()));
+    // The copies keep the transition between them.
+    await designer.edgeLabel("inhale2", "hold2").first().waitFor();
+    assert.deepEqual((await designer.selectedSteps()).sort(), ["hold2", "inhale2"]);
+
+    await designer.shortcut("Delete");
+    await eventually(async () => assert.deepEqual((await designer.stepNames()).sort(), original));
+    await designer.shortcut("Control+z");
+    await eventually(async () => assert.ok((await designer.stepNames()).includes("inhale2")));
+    await designer.shortcut("Control+Shift+z");
+    await eventually(async () => assert.deepEqual((await designer.stepNames()).sort(), original));
+
+    await designer.shortcut("l");
+    await designer.settle();
+    await designer.shortcut("f");
+    await designer.settle();
+    const box = await page.getByTestId("sequence-canvas").boundingBox();
+    for (const step of original) {
+      const b = await designer.node(step).boundingBox();
+      assert.ok(box && b && b.x >= box.x && b.x + b.width <= box.x + box.width + 1, `${step} is outside the canvas after fit`);
+    }
+
+    // Export, then a broken import changes nothing, then a good one (renamed step) loads and can be undone.
+    const exported = await designer.exportFile();
+    assert.match(exported.name, /\.tidewright\.json$/);
+    const def = JSON.parse(exported.text) as { format: string; machine: { states: Record<string, unknown> } };
+    assert.equal(def.format, "tidewright.sequence/1");
+    assert.equal(await designer.importFile("broken.json", "{ not json"), "import-failed");
+    assert.match((await page.getByTestId("import-errors").textContent()) ?? "", /not JSON/);
+    const wrongKind = exported.text.replace('"kind": "hold"', '"kind": "pause"');
+    assert.equal(await designer.importFile("wrong.json", wrongKind), "import-failed");
+    assert.match((await page.getByTestId("import-errors").textContent()) ?? "", /meta\.kind/);
+    assert.deepEqual((await designer.stepNames()).sort(), original);
+    const renamed = exported.text.replaceAll('"standby"', '"parked"');
+    assert.equal(await designer.importFile("renamed.json", renamed), "imported");
+    await eventually(async () => assert.ok((await designer.stepNames()).includes("parked")));
+    await designer.shortcut("Control+z");
+    await eventually(async () => assert.ok((await designer.stepNames()).includes("standby")));
+
+    // Revision 1 opened from the history link is read-only once revision 2 exists.
+    await designer.selectStep("hold");
+    await page.getByTestId("step-kind").selectOption("custom");
+    assert.equal(await designer.save("hold becomes custom"), 2);
+    await designer.goto(projectId, sequenceId, 1);
+    assert.equal(await designer.isReadOnly(), true);
+    assert.equal(await designer.baseRevision(), 1);
+  }),
 ];
