@@ -8,7 +8,7 @@ import { useCallback, useEffect, useMemo, useRef, useState } from "react";
 import { ReactFlowProvider } from "@xyflow/react";
 import type { SequenceDefinition, SequenceLayout } from "@/machines/schema";
 import type { Rig } from "@/lib/sim/types";
-import { completeLayout } from "@/machines/graph";
+import { completeLayout, definitionToGraph } from "@/machines/graph";
 import { SequenceCanvas } from "./canvas/sequence-canvas";
 import type { CanvasDecorations } from "./canvas/decorations";
 import { Inspector } from "./inspector/inspector";
@@ -64,7 +64,9 @@ function EditorBody({ sequenceId, sequenceName, revision, rig, readOnly }: Seque
   const [status, setStatus] = useState<EditorStatus>({ kind: "idle" });
   const [serverProblems, setServerProblems] = useState<Problem[]>([]);
   const [tab, setTab] = useState<BottomTab>("problems");
-  const [activeStep, setActiveStep] = useState<string | null>(null);
+  const [live, setLive] = useState<{ step: string | null; from: string | null }>({ step: null, from: null });
+  const activeStep = live.step;
+  const onActiveStep = useCallback((step: string | null) => setLive((l) => ({ step, from: step === null ? null : l.step })), []);
   const dirty = doc !== savedDoc;
   const [draft, setDraft] = useState<Draft | null>(null);
 
@@ -90,7 +92,11 @@ function EditorBody({ sequenceId, sequenceName, revision, rig, readOnly }: Seque
 
   const problems = useMemo(() => liveProblems(doc.definition), [doc.definition]);
   const counts = countBySeverity(problems);
-  const decorations = useMemo<CanvasDecorations>(() => ({ ...problemDecorations(problems), activeStep }), [problems, activeStep]);
+  const liveEdge = useMemo(() => takenEdge(doc.definition, live.from, live.step), [doc.definition, live]);
+  const decorations = useMemo<CanvasDecorations>(
+    () => ({ ...problemDecorations(problems), activeStep, liveEdge }),
+    [problems, activeStep, liveEdge],
+  );
 
   const actions = useEditorActions({ editor, canvasBoxRef, readOnly, onStatus: setStatus });
 
@@ -267,7 +273,7 @@ function EditorBody({ sequenceId, sequenceName, revision, rig, readOnly }: Seque
               label={`Steps of ${sequenceName}`}
             />
           </div>
-          <LivePreview definition={doc.definition} rig={rig} onActiveStep={setActiveStep} />
+          <LivePreview definition={doc.definition} rig={rig} onActiveStep={onActiveStep} />
         </div>
         <div className="max-h-[calc(58vh+24rem)] overflow-hidden rounded border border-ink-300 bg-surface">
           <Inspector
@@ -303,4 +309,14 @@ function EditorBody({ sequenceId, sequenceName, revision, rig, readOnly }: Seque
       />
     </div>
   );
+}
+
+/**
+ * The edge the preview just took, when it is the only one from the previous step to the current one.
+ * The engine reports steps, not transitions, so with parallel exits there is no honest single answer.
+ */
+function takenEdge(def: SequenceDefinition, from: string | null, to: string | null): string | null {
+  if (!from || !to) return null;
+  const candidates = definitionToGraph(def, null).edges.filter((e) => e.source === from && e.target === to);
+  return candidates.length === 1 ? candidates[0].id : null;
 }

@@ -4,5 +4,9 @@
  */
 import type { E2ETest } from "../harness";
 import { tests as auth } from "./auth.spec";
+import { tests as designer } from "./designer.spec";
 
-export const specs: { file: string; tests: E2ETest[] }[] = [{ file: "auth.spec.ts", tests: auth }];
+export const specs: { file: string; tests: E2ETest[] }[] = [
+  { file: "auth.spec.ts", tests: auth },
+  { file: "designer.spec.ts", tests: designer },
+];
