@@ -16,6 +16,7 @@ import { auditLog, projectMembers, projects, users } from "./schema";
 import { hashPassword } from "@/lib/auth/password";
 import type { Role } from "@/lib/auth/roles";
 import { seedPatientCasesStep } from "./seed-cases";
+import { seedDemoSequences } from "./seed-sequences";
 
 export const DEMO_PASSWORD = "tidewright-demo";
 
@@ -47,7 +48,7 @@ export interface SeedStep {
 export const baseSeedSteps: SeedStep[] = [seedPatientCasesStep];
 
 /** Demo data that hangs off the demo team (sequences, rig profile, runs …), in order. */
-export const demoSeedSteps: SeedStep[] = [];
+export const demoSeedSteps: SeedStep[] = [seedDemoSequences];
 
 /** The invented scenario. No real people, organisations or devices. */
 export const DEMO_SCENARIO = {
