@@ -59,6 +59,7 @@ export function HistoryTable({ projectId, sequenceId, revisions }: Props) {
               <th className="px-4 py-2 font-medium">Author</th>
               <th className="px-4 py-2 font-medium">Saved</th>
               <th className="px-4 py-2 font-medium">Hash (SHA-256)</th>
+              <th className="px-4 py-2 font-medium">Simulation</th>
             </tr>
           </thead>
           <tbody>
@@ -89,6 +90,11 @@ export function HistoryTable({ projectId, sequenceId, revisions }: Props) {
                   <code className="font-mono text-xs text-ink-700" title={r.hash}>
                     {shortHash(r.hash)}
                   </code>
+                </td>
+                <td className="whitespace-nowrap px-4 py-2">
+                  <Link href={`/runs?revisionId=${r.id}`} className="text-glass-800 hover:underline" data-testid="revision-runs">
+                    Runs of r{r.number}
+                  </Link>
                 </td>
               </tr>
             ))}

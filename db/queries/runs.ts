@@ -275,11 +275,12 @@ export interface RunListItem {
 export async function listVisibleRuns(
   db: Db,
   user: SessionUser,
-  filter: { revisionId?: string; caseId?: string; limit: number },
+  filter: { revisionId?: string; caseId?: string; projectId?: string; limit: number },
 ): Promise<RunListItem[]> {
   const conditions: SQL[] = [visibleProject(user, sequences.projectId)];
   if (filter.revisionId) conditions.push(eq(runs.revisionId, filter.revisionId));
   if (filter.caseId) conditions.push(eq(runs.caseId, filter.caseId));
+  if (filter.projectId) conditions.push(eq(sequences.projectId, filter.projectId));
   const rows = await db
     .select({
       id: runs.id,

@@ -15,7 +15,7 @@ export const PERMISSIONS = {
   "rig:edit": ["admin", "engineer"],
   "bench-logs:upload": ["admin", "engineer"],
   "runs:create": ["admin", "engineer", "clinician"],
-  "cases:edit": ["admin", "clinician"],
+  "cases:edit": ["admin", "engineer", "clinician"],
   "reviews:comment": ["admin", "clinician"],
   "reviews:decide": ["admin", "clinician"],
   "sign-offs:sign": ["admin", "clinician"],

@@ -4,14 +4,10 @@
  */
 import { z } from "zod";
 import { patientSchema } from "@/lib/sim/types";
-import type { Role } from "@/lib/auth/roles";
+import { canEditPatientCases } from "@/lib/auth/roles";
 
-/**
- * Issue 5 §1: engineers, clinicians and admins create and edit cases; viewers read.
- * (lib/auth/roles.ts "cases:edit" lists admin and clinician only; this list follows the issue.)
- */
-export const CASE_EDITOR_ROLES: readonly Role[] = ["admin", "engineer", "clinician"];
-export const canEditCases = (role: Role): boolean => CASE_EDITOR_ROLES.includes(role);
+/** Engineers, clinicians and admins create and edit cases; viewers read (lib/auth/roles.ts "cases:edit"). */
+export const canEditCases = canEditPatientCases;
 
 export const caseName = z
   .string({ error: "name must be text" })

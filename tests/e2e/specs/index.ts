@@ -5,8 +5,10 @@
 import type { E2ETest } from "../harness";
 import { tests as auth } from "./auth.spec";
 import { tests as designer } from "./designer.spec";
+import { tests as runs } from "./runs.spec";
 
 export const specs: { file: string; tests: E2ETest[] }[] = [
   { file: "auth.spec.ts", tests: auth },
   { file: "designer.spec.ts", tests: designer },
+  { file: "runs.spec.ts", tests: runs },
 ];

@@ -10,6 +10,12 @@ import { auditFor } from "@/db/audit";
 import { Badge } from "@/components/ui/badge";
 import { ProjectSection } from "@/components/projects/project-section";
 import { EmptyState } from "@/components/ui/empty-state";
+import { listSequences } from "@/db/queries/sequences";
+import { listVisibleRuns } from "@/db/queries/runs";
+import { getProjectRig } from "@/db/queries/rig";
+import { ProjectSequences } from "@/components/projects/project-sequences";
+import { ProjectRuns } from "@/components/projects/project-runs";
+import { ProjectRig } from "@/components/projects/project-rig";
 
 export const metadata: Metadata = { title: "Project" };
 
@@ -35,6 +41,11 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
   const project = await getProjectDetail(db, user, parsed.data.id);
   if (!project) notFound();
   const activity = await auditFor(db, "project", project.id, 20);
+  const [sequenceList, recentRuns, rig] = await Promise.all([
+    listSequences(db, user, project.id),
+    listVisibleRuns(db, user, { projectId: project.id, limit: 10 }),
+    getProjectRig(db, project.id),
+  ]);
 
   return (
     <main className="grid gap-8 lg:grid-cols-[12rem_1fr]">
@@ -64,16 +75,34 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
           {project.description && <p className="mt-2 max-w-3xl text-ink-600">{project.description}</p>}
         </header>
 
-        <ProjectSection id="sequences" title="Sequences" description="Breath-cycle statecharts and their revisions.">
-          <EmptyState title="No sequences yet">The sequence designer lands here.</EmptyState>
+        <ProjectSection
+          id="sequences"
+          title="Sequences"
+          description="Breath-cycle statecharts and their revisions."
+          actions={
+            <Link href={`/projects/${project.id}/sequences`} className="text-sm text-glass-800 underline">
+              All sequences
+            </Link>
+          }
+        >
+          <ProjectSequences projectId={project.id} sequences={sequenceList} />
         </ProjectSection>
 
         <ProjectSection id="rig" title="Rig profile" description="Actuator, bag calibration, circuit, valves, sensor and scan period.">
-          <EmptyState title="No rig profile yet">Simulations use an ideal rig until one is set.</EmptyState>
+          <ProjectRig projectId={project.id} rig={rig.rig} isDefault={rig.updatedAt === null} />
         </ProjectSection>
 
-        <ProjectSection id="runs" title="Runs" description="Simulations of revisions against patient cases.">
-          <EmptyState title="No runs yet" />
+        <ProjectSection
+          id="runs"
+          title="Runs"
+          description="Simulations of revisions against patient cases."
+          actions={
+            <Link href="/cases" className="text-sm text-glass-800 underline">
+              Patient cases
+            </Link>
+          }
+        >
+          <ProjectRuns runs={recentRuns} />
         </ProjectSection>
 
         <ProjectSection id="members" title="Members" description={`${project.members.length} people on this programme.`}>

@@ -36,7 +36,15 @@ export default async function SequenceEditorPage({
 
   return (
     <main>
-      <SequenceHeader project={project} sequence={sequence} current="editor" />
+      <SequenceHeader project={project} sequence={sequence} current="editor">
+        <Link
+          href={`/runs?revisionId=${revision.id}`}
+          className="rounded-md border border-line px-3 py-1.5 text-sm text-glass-800 hover:bg-ink-100"
+          data-testid="run-revision"
+        >
+          Run r{revision.number} on patient cases
+        </Link>
+      </SequenceHeader>
       {isOld && (
         <Alert tone="info" className="mb-4">
           Revision {revision.number} of {latest}, saved {formatTime(revision.createdAt)} by {revision.author.name}
