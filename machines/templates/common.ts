@@ -22,22 +22,32 @@ export const PEEP: Settings[string] = {
   description: "End-expiratory pressure the PEEP valve holds.",
 };
 
+/** Fastest rate a template allows: MHRA RMVS v1 asks for 10–30 /min. */
+export const RR_MAX = 30;
+
+/**
+ * The shortest breath period the templates allow (60 / RR_MAX = 2 s). Inspiration (Ti, plus any pause)
+ * must fit inside it at every allowed setting, so the expiratory timer `60 / RR - Ti - …` is never negative.
+ */
+export const SHORTEST_PERIOD_S = 60 / RR_MAX;
+
 export const RR = (value: number, label = "Rate"): Settings[string] => ({
   label,
   unit: "/min",
   value,
-  min: 4,
-  max: 60,
+  min: 10,
+  max: RR_MAX,
   step: 1,
   description: "Breaths per minute.",
 });
 
-export const TI = (value: number, label = "Inspiratory time"): Settings[string] => ({
+/** `max` defaults to the whole shortest period; a template with a pause after Ti passes a smaller one. */
+export const TI = (value: number, label = "Inspiratory time", max = SHORTEST_PERIOD_S): Settings[string] => ({
   label,
   unit: "s",
   value,
   min: 0.2,
-  max: 5,
+  max,
   step: 0.05,
 });
 

@@ -4,6 +4,7 @@ import {
   PEEP,
   PLIMIT,
   RR,
+  SHORTEST_PERIOD_S,
   TI,
   apneaMonitor,
   guard,
@@ -16,18 +17,21 @@ import {
 
 type Settings = SequenceDefinitionInput["settings"];
 
+/** Longest pause; the flow time gets the rest of the shortest period, so Ti + pause never outlasts a breath. */
+const PAUSE_MAX_S = 0.5;
+
 export const VOLUME_SETTINGS: Settings = {
   PEEP,
   // 400 mL is the tidal volume MHRA RMVS v1 requires (ideally 350–450, optionally 250–600).
   Vt: { label: "Tidal volume", unit: "mL", value: 400, min: 50, max: 2000, step: 10 },
   RR: RR(15),
-  Ti: TI(1, "Flow time"),
+  Ti: TI(1, "Flow time", SHORTEST_PERIOD_S - PAUSE_MAX_S),
   pause: {
     label: "Inspiratory pause",
     unit: "s",
     value: 0.2,
     min: 0,
-    max: 2,
+    max: PAUSE_MAX_S,
     step: 0.05,
     description: "Hold after the flow, valve closed: the plateau pressure is read at its end.",
   },
