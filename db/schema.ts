@@ -187,7 +187,13 @@ export const patientCases = pgTable("patient_cases", {
   updatedAt: updatedAt(),
 });
 
-/** One simulation of one revision against one case. `waveform` holds compressed typed arrays. */
+/**
+ * One simulation of one revision against one case. `waveform` holds compressed typed arrays.
+ * `patient` and `rig_body` are copies of the inputs handed to the engine (lib/sim/types.ts Patient and
+ * Rig), because the case and the project rig can be edited later and the run must still say what it
+ * simulated. `rig_body` is null for the "ideal" circuit; both are null on rows written before they existed.
+ * Runs take no setting overrides (the revision's own settings apply), so there is no settings copy.
+ */
 export const runs = pgTable(
   "runs",
   {
@@ -200,6 +206,8 @@ export const runs = pgTable(
     durationS: real("duration_s").notNull(),
     rig: text("rig").$type<RunRig>().notNull().default("project"),
     seed: integer("seed").notNull().default(1),
+    patient: jsonb("patient").$type<unknown>(),
+    rigBody: jsonb("rig_body").$type<unknown>(),
     summary: jsonb("summary").$type<unknown>(),
     breaths: jsonb("breaths").$type<unknown>(),
     alarms: jsonb("alarms").$type<unknown>(),

@@ -14,7 +14,7 @@ import type { Db } from "@/db";
 import { patientCases, projectMembers, revisions, rigProfiles, runs, sequences } from "@/db/schema";
 import { isRole, type Role } from "@/lib/auth/roles";
 import type { SessionUser } from "@/lib/auth/types";
-import type { Alarm, Breath, StepInterval, Summary } from "@/lib/sim/types";
+import type { Alarm, Breath, Patient, Rig, StepInterval, Summary } from "@/lib/sim/types";
 import type { RunRigValue, RunStatusValue } from "@/lib/validation/runs";
 
 function visibleProject(user: SessionUser, projectIdColumn: AnyPgColumn): SQL {
@@ -83,6 +83,10 @@ export interface NewRun {
   seed: number;
   createdBy: string;
   status: RunStatusValue;
+  /** The patient body handed to the engine, kept so a later edit of the case cannot rewrite the run. */
+  patient: Patient;
+  /** The rig handed to the engine; null for the "ideal" circuit or when no rig could be resolved. */
+  rigBody: Rig | null;
 }
 
 export async function insertRun(db: Db, run: NewRun): Promise<{ id: string; createdAt: Date }> {
@@ -176,8 +180,12 @@ export interface RunRecord {
   breaths: unknown;
   alarms: unknown;
   steps: unknown;
+  /** Stored copies of the inputs as simulated (unvalidated; lib/runs/snapshot.ts parses them). */
+  patient: unknown;
+  rigBody: unknown;
   revision: { id: string; number: number; sequenceId: string; sequenceName: string; projectId: string };
-  case: { id: string; name: string; updatedAt: Date } | null;
+  /** The case as it is now (body unvalidated), to tell whether it still matches what was simulated. */
+  case: { id: string; name: string; updatedAt: Date; body: unknown } | null;
   /** The caller's effective role in the run's project. */
   role: Role;
 }
@@ -199,6 +207,8 @@ export async function findVisibleRun(db: Db, user: SessionUser, id: string): Pro
       breaths: runs.breaths,
       alarms: runs.alarms,
       steps: runs.steps,
+      patient: runs.patient,
+      rigBody: runs.rigBody,
       revisionId: revisions.id,
       revisionNumber: revisions.number,
       sequenceId: sequences.id,
@@ -207,6 +217,7 @@ export async function findVisibleRun(db: Db, user: SessionUser, id: string): Pro
       caseId: patientCases.id,
       caseName: patientCases.name,
       caseUpdatedAt: patientCases.updatedAt,
+      caseBody: patientCases.body,
       memberRole: projectMembers.role,
     })
     .from(runs)
@@ -232,6 +243,8 @@ export async function findVisibleRun(db: Db, user: SessionUser, id: string): Pro
     breaths: row.breaths,
     alarms: row.alarms,
     steps: row.steps,
+    patient: row.patient,
+    rigBody: row.rigBody,
     revision: {
       id: row.revisionId,
       number: row.revisionNumber,
@@ -241,7 +254,7 @@ export async function findVisibleRun(db: Db, user: SessionUser, id: string): Pro
     },
     case:
       row.caseId && row.caseName !== null && row.caseUpdatedAt
-        ? { id: row.caseId, name: row.caseName, updatedAt: row.caseUpdatedAt }
+        ? { id: row.caseId, name: row.caseName, updatedAt: row.caseUpdatedAt, body: row.caseBody }
         : null,
     role: effectiveRole(user, row.memberRole),
   };

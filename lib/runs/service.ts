@@ -27,7 +27,7 @@ import { canRunSimulations } from "@/lib/auth/roles";
 import type { SessionUser } from "@/lib/auth/types";
 import { ApiError, badRequest, forbidden, notFound } from "@/lib/errors";
 import { DEFAULT_RIG } from "@/lib/sim/default-rig";
-import { rigSchema, type Alarm, type Breath, type StepInterval, type Summary, type Waveforms, type RigInput } from "@/lib/sim/types";
+import { rigSchema, type Alarm, type Breath, type Patient, type Rig, type StepInterval, type Summary, type Waveforms } from "@/lib/sim/types";
 import { sequenceDefinition } from "@/machines/schema";
 import type { CreateRunBody, ListRunsQuery, RunRigValue, RunStatusValue, WaveformQuery } from "@/lib/validation/runs";
 import { decodeWaveforms } from "@/lib/waveform/codec";
@@ -37,6 +37,7 @@ import { WAVEFORM_SIGNALS } from "@/lib/validation/runs";
 import { MAX_QUEUED_JOBS, PoolBusyError, simulationPool, warmSimulationPool, type JobHandle } from "./pool";
 import type { SimJob, SimOutcome } from "./protocol";
 import { runReadCache } from "./read-cache";
+import { runInputs } from "./snapshot";
 import { waveformCache } from "./waveform-cache";
 
 /**
@@ -79,7 +80,7 @@ function canRun(role: SessionUser["role"]): boolean {
   return canRunSimulations(role);
 }
 
-function resolveRig(rig: RunRigValue, stored: unknown): { rig: RigInput | "ideal" } | { error: string } {
+function resolveRig(rig: RunRigValue, stored: unknown): { rig: Rig | "ideal" } | { error: string } {
   if (rig === "ideal") return { rig: "ideal" };
   if (stored === null || stored === undefined) return { rig: DEFAULT_RIG };
   const parsed = rigSchema.safeParse(stored);
@@ -108,6 +109,8 @@ export async function startRun(db: Db, user: SessionUser, body: CreateRunBody): 
 
   const rig = resolveRig(body.rig, body.rig === "project" ? await findProjectRigBody(db, revision.projectId) : null);
   const definition = sequenceDefinition.safeParse(revision.definition);
+  // The same objects go into the job below and into the run row: the row records what was simulated.
+  const simulatedRig: Rig | null = "error" in rig || rig.rig === "ideal" ? null : rig.rig;
 
   const run = await insertRun(db, {
     revisionId: revision.id,
@@ -117,6 +120,8 @@ export async function startRun(db: Db, user: SessionUser, body: CreateRunBody): 
     seed: body.seed,
     createdBy: user.id,
     status: "running",
+    patient,
+    rigBody: simulatedRig,
   });
 
   // Failures known before the engine starts are stored like engine failures: shown, never lost.
@@ -228,6 +233,10 @@ export interface RunView {
   case: { id: string; name: string } | null;
   /** The case was edited after this run: its current values are not the ones simulated. */
   caseChangedSinceRun: boolean;
+  /** The patient body as simulated (null only on runs stored before it was kept). */
+  patient: Patient | null;
+  /** The rig as simulated; null for the "ideal" circuit (or a run stored before it was kept). */
+  rigProfile: Rig | null;
   summary: Summary | null;
   breaths: Breath[];
   alarms: Alarm[];
@@ -248,6 +257,7 @@ export async function getRunView(db: Db, user: SessionUser, id: string): Promise
     progress = live.handle.progress();
   }
   const steps = parseSteps(run.steps);
+  const inputs = runInputs(run);
   return {
     id: run.id,
     status,
@@ -261,7 +271,9 @@ export async function getRunView(db: Db, user: SessionUser, id: string): Promise
     wallMs: run.wallMs,
     revision: run.revision,
     case: run.case ? { id: run.case.id, name: run.case.name } : null,
-    caseChangedSinceRun: run.case !== null && run.case.updatedAt > run.createdAt,
+    caseChangedSinceRun: inputs.caseChangedSinceRun,
+    patient: inputs.patient,
+    rigProfile: inputs.rigProfile,
     summary: (run.summary as Summary | null) ?? null,
     breaths: Array.isArray(run.breaths) ? (run.breaths as Breath[]) : [],
     alarms: Array.isArray(run.alarms) ? (run.alarms as Alarm[]) : [],
