@@ -99,6 +99,12 @@ export interface SequenceRuntime {
   /** Value of a formula compiled with this sequence (booleans 1/0). */
   value(expr: string): number;
   test(expr: string): boolean;
+  /**
+   * The function of a formula compiled with this sequence, for the engine's scan loop: value() without the
+   * lookup by text, and with the settings folded in as constants (CompiledFormula.bindFolded). Settings are
+   * fixed for a runtime's life (resolved when it is created; only signal slots change during a run).
+   */
+  fn(expr: string): () => number;
   /** A delay formula in ms (negative → 0). Non-finite values are recorded in `problems` and give 0. */
   delayMs(expr: string): number;
   /** Run-time problems (non-finite delays or commands), checked by the engine after each scan. */
@@ -532,6 +538,18 @@ function makeRuntime(
   }
   const bound = new Map<string, () => number>();
   for (const [expr, f] of formulas) bound.set(expr, f.bind(layout, slots));
+  const isSetting = (slot: number) => slot >= SIGNAL_NAMES.length;
+  const folded = new Map<string, () => number>();
+  const getFolded = (expr: string) => {
+    let fn = folded.get(expr);
+    if (!fn) {
+      const f = formulas.get(expr);
+      if (!f) throw new Error(`formula "${expr}" was not compiled with this sequence`);
+      fn = f.bindFolded(layout, slots, isSetting);
+      folded.set(expr, fn);
+    }
+    return fn;
+  };
   const get = (expr: string) => {
     const fn = bound.get(expr);
     if (!fn) throw new Error(`formula "${expr}" was not compiled with this sequence`);
@@ -546,6 +564,7 @@ function makeRuntime(
     callbacks,
     problems: [],
     value: (expr) => get(expr)(),
+    fn: getFolded,
     test: (expr) => get(expr)() !== 0,
     delayMs(expr) {
       const s = get(expr)();

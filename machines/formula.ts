@@ -121,6 +121,13 @@ export interface CompiledFormula {
   evaluate(scope: FormulaScope): FormulaValue;
   /** A function of the slot array: numbers (booleans as 1/0, strings as interned ids). */
   bind(layout: SlotLayout, slots: Float64Array): () => number;
+  /**
+   * Like `bind`, with the slots `fixed` says are constant (a run's settings) read once now and folded in:
+   * `60 / RR + 5` becomes one number, `trigger == "pressure" ? a : b` one branch, a comparison of a signal
+   * with such a constant one closure. Same results as `bind` (the same operations, evaluated once) while
+   * those slots keep their values.
+   */
+  bindFolded(layout: SlotLayout, slots: Float64Array, fixed: (slot: number) => boolean): () => number;
 }
 
 // --- string interning: choice values become numbers in slot arrays ------------------------------------
@@ -318,117 +325,218 @@ function mathjsMod(x: number, y: number): number {
   return y === 0 ? x : x - y * UNARY_FN.floor(x / y);
 }
 
-function toThunk(n: Anode, layout: SlotLayout, slots: Float64Array): Thunk | null {
+// Comparison operators by code, for the specialised closures below: one function, so V8 inlines it into
+// each closure (a comparison passed in as a function value would be a call per evaluation).
+const CMP_LARGER = 0;
+const CMP_SMALLER = 1;
+const CMP_LARGER_EQ = 2;
+const CMP_SMALLER_EQ = 3;
+const CMP_EQUAL = 4;
+const CMP_UNEQUAL = 5;
+const CMP_CODES: Record<string, number> = {
+  larger: CMP_LARGER,
+  smaller: CMP_SMALLER,
+  largerEq: CMP_LARGER_EQ,
+  smallerEq: CMP_SMALLER_EQ,
+  equal: CMP_EQUAL,
+  unequal: CMP_UNEQUAL,
+};
+
+function compare(op: number, x: number, y: number): number {
+  switch (op) {
+    case CMP_LARGER:
+      return x > y && !nearlyEqual(x, y) ? 1 : 0;
+    case CMP_SMALLER:
+      return x < y && !nearlyEqual(x, y) ? 1 : 0;
+    case CMP_LARGER_EQ:
+      return x >= y || nearlyEqual(x, y) ? 1 : 0;
+    case CMP_SMALLER_EQ:
+      return x <= y || nearlyEqual(x, y) ? 1 : 0;
+    case CMP_EQUAL:
+      return nearlyEqual(x, y) ? 1 : 0;
+    default:
+      return nearlyEqual(x, y) ? 0 : 1;
+  }
+}
+
+/**
+ * What the closure compiler knows about a thunk it built: a constant (its value) or a plain slot read (its
+ * index). A comparison of two such operands becomes one closure that reads the slot itself: comparisons
+ * return small integers, so a guard such as `tStep >= 0.05 and paw <= K` runs without a double crossing a
+ * call (V8 boxes every double returned by a closure it does not inline, and a closure tree's calls are not
+ * inlined).
+ */
+interface Known {
+  constants: Map<Thunk, number>;
+  slotReads: Map<Thunk, number>;
+  /** Thunks that are a conjunction (`and`) of comparisons between slots and constants: their terms. */
+  conjunctions: Map<Thunk, CompareTerm[]>;
+}
+
+/** One comparison of a conjunction: each side a slot (index ≥ 0) or a constant (index −1 and its value). */
+interface CompareTerm {
+  op: number;
+  slotA: number;
+  constA: number;
+  slotB: number;
+  constB: number;
+}
+
+function constantThunk(c: number, known: Known): Thunk {
+  const t = () => c;
+  known.constants.set(t, c);
+  return t;
+}
+
+function specialisedCompare(op: number, a: Thunk, b: Thunk, slots: Float64Array, known: Known): Thunk | null {
+  const ca = known.constants.get(a);
+  const cb = known.constants.get(b);
+  const sa = known.slotReads.get(a);
+  const sb = known.slotReads.get(b);
+  let t: Thunk;
+  if (sa !== undefined && cb !== undefined) t = () => compare(op, slots[sa], cb);
+  else if (ca !== undefined && sb !== undefined) t = () => compare(op, ca, slots[sb]);
+  else if (sa !== undefined && sb !== undefined) t = () => compare(op, slots[sa], slots[sb]);
+  else return null;
+  known.conjunctions.set(t, [{ op, slotA: sa ?? -1, constA: ca ?? 0, slotB: sb ?? -1, constB: cb ?? 0 }]);
+  return t;
+}
+
+/**
+ * `a and b` where both sides are comparisons (or conjunctions of them) between slots and constants: one
+ * closure that runs the terms in order and stops at the first false one, as nested `and`s would (their
+ * value is 1 exactly when every term is), instead of a call per node.
+ */
+function conjunction(terms: CompareTerm[], slots: Float64Array, known: Known): Thunk {
+  const m = terms.length;
+  const ops = Int32Array.from(terms, (x) => x.op);
+  const slotA = Int32Array.from(terms, (x) => x.slotA);
+  const constA = Float64Array.from(terms, (x) => x.constA);
+  const slotB = Int32Array.from(terms, (x) => x.slotB);
+  const constB = Float64Array.from(terms, (x) => x.constB);
+  const t = () => {
+    for (let j = 0; j < m; j++) {
+      const ia = slotA[j];
+      const ib = slotB[j];
+      if (compare(ops[j], ia >= 0 ? slots[ia] : constA[j], ib >= 0 ? slots[ib] : constB[j]) === 0) return 0;
+    }
+    return 1;
+  };
+  known.conjunctions.set(t, terms);
+  return t;
+}
+
+/**
+ * Closure tree of a checked formula over the slots. With `fixed`, slots it names are read now and treated
+ * as constants, and every operation whose operands are all constant is evaluated once, here, by the same
+ * closure the tree would run (so the folded value is bit for bit what evaluation would give).
+ */
+function toThunk(n: Anode, layout: SlotLayout, slots: Float64Array, fixed?: (slot: number) => boolean, known?: Known): Thunk | null {
+  const k: Known = known ?? { constants: new Map(), slotReads: new Map(), conjunctions: new Map() };
+  const fold = (t: Thunk, args: Thunk[]): Thunk => {
+    if (fixed && args.every((a) => k.constants.has(a))) return constantThunk(t(), k);
+    return t;
+  };
   switch (n.type) {
     case "ConstantNode": {
       const v = n.value;
       const c = typeof v === "string" ? internString(v) : typeof v === "boolean" ? (v ? 1 : 0) : (v as number);
-      return () => c;
+      return constantThunk(c, k);
     }
     case "SymbolNode": {
       const name = n.name as string;
       if (name in FORMULA_CONSTANTS) {
         const c = Number(FORMULA_CONSTANTS[name]);
-        return () => c;
+        return constantThunk(c, k);
       }
       const i = layout.index.get(name);
       if (i === undefined) return null;
-      return () => slots[i];
+      if (fixed && fixed(i)) return constantThunk(slots[i], k);
+      const t = () => slots[i];
+      k.slotReads.set(t, i);
+      return t;
     }
     case "ParenthesisNode":
-      return toThunk(n.content as Anode, layout, slots);
+      return toThunk(n.content as Anode, layout, slots, fixed, k);
     case "ConditionalNode": {
-      const c = toThunk(n.condition as Anode, layout, slots);
-      const t = toThunk(n.trueExpr as Anode, layout, slots);
-      const f = toThunk(n.falseExpr as Anode, layout, slots);
+      const c = toThunk(n.condition as Anode, layout, slots, fixed, k);
+      const t = toThunk(n.trueExpr as Anode, layout, slots, fixed, k);
+      const f = toThunk(n.falseExpr as Anode, layout, slots, fixed, k);
       if (!c || !t || !f) return null;
+      // A constant condition picks its branch once (evaluation takes only that branch too).
+      const cc = fixed ? k.constants.get(c) : undefined;
+      if (cc !== undefined) return cc !== 0 ? t : f;
       return () => (c() !== 0 ? t() : f());
     }
     case "FunctionNode": {
       const name = (n.fn as unknown as Anode).name as string;
-      const args = (n.args ?? []).map((a) => toThunk(a, layout, slots));
+      const args = (n.args ?? []).map((a) => toThunk(a, layout, slots, fixed, k));
       if (args.some((a) => a === null)) return null;
       const as = args as Thunk[];
       if (name in UNARY_FN && as.length === 1) {
         const f = UNARY_FN[name];
         const a = as[0];
-        return () => f(a());
+        return fold(() => f(a()), as);
       }
       if (name === "pow" && as.length === 2) {
         const [a, b] = as;
-        return () => Math.pow(a(), b());
+        return fold(() => Math.pow(a(), b()), as);
       }
       if ((name === "min" || name === "max") && as.length >= 1) {
         const pick = name === "min" ? Math.min : Math.max;
         if (as.length === 2) {
           const [a, b] = as;
-          return () => pick(a(), b());
+          return fold(() => pick(a(), b()), as);
         }
-        return () => {
+        return fold(() => {
           let r = as[0]();
-          for (let k = 1; k < as.length; k++) r = pick(r, as[k]());
+          for (let j = 1; j < as.length; j++) r = pick(r, as[j]());
           return r;
-        };
+        }, as);
       }
       return null;
     }
     case "OperatorNode": {
-      const args = (n.args ?? []).map((a) => toThunk(a, layout, slots));
+      const args = (n.args ?? []).map((a) => toThunk(a, layout, slots, fixed, k));
       if (args.some((a) => a === null)) return null;
-      const [a, b] = args as Thunk[];
-      switch (n.fn as string) {
+      const as = args as Thunk[];
+      const [a, b] = as;
+      const fn = n.fn as string;
+      const cmp = CMP_CODES[fn];
+      if (cmp !== undefined) {
+        const generic = () => compare(cmp, a(), b());
+        if (fixed && k.constants.has(a) && k.constants.has(b)) return fold(generic, as);
+        return specialisedCompare(cmp, a, b, slots, k) ?? generic;
+      }
+      switch (fn) {
         case "add":
-          return () => a() + b();
+          return fold(() => a() + b(), as);
         case "subtract":
-          return () => a() - b();
+          return fold(() => a() - b(), as);
         case "multiply":
-          return () => a() * b();
+          return fold(() => a() * b(), as);
         case "divide":
-          return () => a() / b();
+          return fold(() => a() / b(), as);
         case "pow":
-          return () => Math.pow(a(), b());
+          return fold(() => Math.pow(a(), b()), as);
         case "mod":
-          return () => mathjsMod(a(), b());
+          return fold(() => mathjsMod(a(), b()), as);
         case "unaryMinus":
-          return () => -a();
+          return fold(() => -a(), as);
         case "unaryPlus":
           return a;
-        case "larger":
-          return () => {
-            const x = a(),
-              y = b();
-            return x > y && !nearlyEqual(x, y) ? 1 : 0;
-          };
-        case "smaller":
-          return () => {
-            const x = a(),
-              y = b();
-            return x < y && !nearlyEqual(x, y) ? 1 : 0;
-          };
-        case "largerEq":
-          return () => {
-            const x = a(),
-              y = b();
-            return x >= y || nearlyEqual(x, y) ? 1 : 0;
-          };
-        case "smallerEq":
-          return () => {
-            const x = a(),
-              y = b();
-            return x <= y || nearlyEqual(x, y) ? 1 : 0;
-          };
-        case "equal":
-          return () => (nearlyEqual(a(), b()) ? 1 : 0);
-        case "unequal":
-          return () => (nearlyEqual(a(), b()) ? 0 : 1);
-        case "and":
-          return () => (a() !== 0 && b() !== 0 ? 1 : 0);
+        case "and": {
+          const ta = k.conjunctions.get(a);
+          const tb = k.conjunctions.get(b);
+          if (ta && tb) return conjunction([...ta, ...tb], slots, k);
+          return fold(() => (a() !== 0 && b() !== 0 ? 1 : 0), as);
+        }
         case "or":
-          return () => (a() !== 0 || b() !== 0 ? 1 : 0);
+          return fold(() => (a() !== 0 || b() !== 0 ? 1 : 0), as);
         case "xor":
-          return () => ((a() !== 0) !== (b() !== 0) ? 1 : 0);
+          return fold(() => ((a() !== 0) !== (b() !== 0) ? 1 : 0), as);
         case "not":
-          return () => (a() === 0 ? 1 : 0);
+          return fold(() => (a() === 0 ? 1 : 0), as);
         default:
           return null;
       }
@@ -460,6 +568,12 @@ export function compileFormula(expr: string): CompiledFormula {
   if (hit) return hit;
   const { node, symbols, strings } = parseChecked(expr);
   const code = node.compile();
+  // Fallback of bind (not reached by the whitelisted subset, kept for safety): mathjs on a scope built from slots.
+  const fallback = (layout: SlotLayout, slots: Float64Array) => () => {
+    const scope: FormulaScope = {};
+    for (const s of symbols) scope[s] = slotToValue(slots[layout.index.get(s) as number]);
+    return valueToSlot(compiled.evaluate(scope));
+  };
   const probe = toThunk(node as unknown as Anode, { index: new Map(symbols.map((s, i) => [s, i])) }, new Float64Array(symbols.length));
   const compiled: CompiledFormula = {
     expr,
@@ -485,12 +599,15 @@ export function compileFormula(expr: string): CompiledFormula {
       }
       const t = toThunk(node as unknown as Anode, layout, slots);
       if (t) return t;
-      // Fallback (not reached by the whitelisted subset, kept for safety): mathjs on a scope built from slots.
-      return () => {
-        const scope: FormulaScope = {};
-        for (const s of symbols) scope[s] = slotToValue(slots[layout.index.get(s) as number]);
-        return valueToSlot(compiled.evaluate(scope));
-      };
+      return fallback(layout, slots);
+    },
+    bindFolded(layout: SlotLayout, slots: Float64Array, fixed: (slot: number) => boolean): () => number {
+      for (const s of symbols) {
+        if (!layout.index.has(s)) throw new FormulaError(`unknown name "${s}" in "${expr}"`, expr);
+      }
+      const t = toThunk(node as unknown as Anode, layout, slots, fixed);
+      if (t) return t;
+      return fallback(layout, slots);
     },
   };
   cache.set(expr, compiled);

@@ -69,23 +69,31 @@ export function inletValveFlowLps(pawCmH2O: number, crackingCmH2O: number, resis
   return pawCmH2O < -crackingCmH2O ? (-crackingCmH2O - pawCmH2O) / resistanceCmH2OPerLps : 0;
 }
 
+/** Slots of the solver's in/out array (see solveCircuitNodeCmH2O). */
+export const NODE_PAW = 0;
+export const NODE_DT = 1;
+export const NODE_QIN = 2;
+export const NODE_G = 3;
+export const NODE_BACK = 4;
+/** Length of the solver's in/out array. */
+export const NODE_IO_LENGTH = 5;
+
 /**
  * Paw at the end of one step (backward Euler), given the previous Paw, the driver inflow qIn (L/s,
  * constant over the step), the lung as V̇ = g·(Paw − back) (see lung.ts; back = Pel(V) − Pmus) and whether
- * the PEEP valve path is open. The result is written to out[0]: returning a double from a function the JIT
- * does not inline allocates a heap number per step.
+ * the PEEP valve path is open.
+ *
+ * Inputs and the result travel through `io` (io[NODE_PAW] = previous Paw in, new Paw out; io[NODE_DT],
+ * io[NODE_QIN], io[NODE_G], io[NODE_BACK]), not through arguments and a return value: this function is too
+ * large for V8 to inline into the step loop, and every double passed to or returned from a call that is not
+ * inlined is boxed in a fresh heap number (measured: ~5 MB of garbage per 60 s run, most of the engine's GC).
  */
-export function solveCircuitNodeCmH2O(
-  out: Float64Array,
-  pawPrevCmH2O: number,
-  dtS: number,
-  c: CircuitParams,
-  valveOpen: boolean,
-  qInLps: number,
-  lungAdmittance: number,
-  lungBackPressureCmH2O: number,
-): void {
-  const cdt = c.complianceLPerCmH2O / dtS;
+export function solveCircuitNodeCmH2O(io: Float64Array, c: CircuitParams, valveOpen: boolean): void {
+  const pawPrevCmH2O = io[NODE_PAW];
+  const qInLps = io[NODE_QIN];
+  const lungAdmittance = io[NODE_G];
+  const lungBackPressureCmH2O = io[NODE_BACK];
+  const cdt = c.complianceLPerCmH2O / io[NODE_DT];
   const rExp = c.expiratoryResistanceCmH2OPerLps;
   const piecewiseLinear = c.leakKind !== LEAK_ORIFICE;
   let x = pawPrevCmH2O;
@@ -118,7 +126,7 @@ export function solveCircuitNodeCmH2O(
       active |= 8;
     }
     if (g === 0) {
-      out[0] = x;
+      io[NODE_PAW] = x;
       return;
     }
     if (g > 0) hi = x;
@@ -130,16 +138,16 @@ export function solveCircuitNodeCmH2O(
       else next = g > 0 ? Math.max(next, x - 1000) : Math.min(next, x + 1000);
     }
     if (piecewiseLinear && activeAt(next, c, valveOpen) === active) {
-      out[0] = next;
+      io[NODE_PAW] = next;
       return;
     }
     if (Math.abs(next - x) <= 1e-10 * (1 + Math.abs(x))) {
-      out[0] = next;
+      io[NODE_PAW] = next;
       return;
     }
     x = next;
   }
-  out[0] = x;
+  io[NODE_PAW] = x;
 }
 
 function activeAt(x: number, c: CircuitParams, valveOpen: boolean): number {

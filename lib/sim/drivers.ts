@@ -69,6 +69,39 @@ export function bagSlopeLPerDeg(table: BagTable, angleDeg: number): number {
   return (v[i] - v[i - 1]) / (a[i] - a[i - 1]);
 }
 
+/**
+ * bagVolumeL and bagSlopeLPerDeg for the step loop, where the arm moves a little each step: the table
+ * segment is searched from the one found last time (`hints[slot]`, updated), not from the start. Each finds
+ * the same segment as the linear search from the start (the first index ≥ 1 whose angle is ≥ the arm angle,
+ * resp. > it, in the ascending table) and interpolates with the same expression, so the values are the same.
+ */
+export function bagVolumeHintedL(table: BagTable, angleDeg: number, hints: Int32Array, slot: number): number {
+  const a = table.angleDeg;
+  const v = table.volumeL;
+  const n = a.length;
+  if (angleDeg <= a[0]) return v[0];
+  if (angleDeg >= a[n - 1]) return v[n - 1];
+  let i = hints[slot];
+  if (i < 1 || i > n - 1) i = 1;
+  while (i > 1 && a[i - 1] >= angleDeg) i--;
+  while (a[i] < angleDeg) i++;
+  hints[slot] = i;
+  return v[i - 1] + ((v[i] - v[i - 1]) * (angleDeg - a[i - 1])) / (a[i] - a[i - 1]);
+}
+
+export function bagSlopeHintedLPerDeg(table: BagTable, angleDeg: number, hints: Int32Array, slot: number): number {
+  const a = table.angleDeg;
+  const v = table.volumeL;
+  const n = a.length;
+  if (angleDeg < a[0] || angleDeg >= a[n - 1]) return 0;
+  let i = hints[slot];
+  if (i < 1 || i > n - 1) i = 1;
+  while (i > 1 && a[i - 1] > angleDeg) i--;
+  while (a[i] <= angleDeg) i++;
+  hints[slot] = i;
+  return (v[i] - v[i - 1]) / (a[i] - a[i - 1]);
+}
+
 /** Pulse rate moved toward its target, limited by the maximum acceleration and rate. */
 export function slewPulseRateHz(currentHz: number, targetHz: number, maxAccelHzPerS: number, maxRateHz: number, dtS: number): number {
   const t = targetHz < 0 ? 0 : targetHz > maxRateHz ? maxRateHz : targetHz;

@@ -103,3 +103,46 @@ export function effortPmusCmH2O(s: EffortSchedule, i: number, tS: number): numbe
       return 0;
   }
 }
+
+/**
+ * Pmus at the mid-points t0 + (k + ½)·dt of n consecutive steps, written to out[0..n), starting from effort
+ * `cursor` (the last effort whose onset has passed, −1 before the first); returns the cursor after the last
+ * point. Same values as effortPmusCmH2O point by point. Written for the plant's scan loop: the shape is
+ * chosen once per call, and the results go straight into a Float64Array, so no double is boxed (a call
+ * to effortPmusCmH2O that V8 does not inline returns its value in a fresh heap number).
+ */
+export function fillEffortPmusCmH2O(s: EffortSchedule, cursor: number, t0S: number, dtS: number, n: number, out: Float64Array): number {
+  const onset = s.onsetS;
+  const amp = s.amplitudeCmH2O;
+  const count = s.count;
+  const ti = s.effortTimeS;
+  const shape = s.shape;
+  // Most scans fall between efforts: when no onset falls within the window and the current effort (a
+  // half-sine or ramp, zero past its effort time) is over at the window's first point, every point is 0.
+  // The window's points come from the same expression as below, and t − onset only grows with t, so this
+  // is the loop's own answer, without evaluating it point by point.
+  if (n > 0 && shape !== SHAPE_PARABOLIC_EXP) {
+    const tFirst = t0S + 0.5 * dtS;
+    const tLast = t0S + (n - 1 + 0.5) * dtS;
+    const nextOnset = cursor + 1 < count ? onset[cursor + 1] : Infinity;
+    if (nextOnset > tLast && (cursor < 0 || tFirst - onset[cursor] >= ti)) {
+      out.fill(0, 0, n);
+      return cursor;
+    }
+  }
+  for (let k = 0; k < n; k++) {
+    const tm = t0S + (k + 0.5) * dtS;
+    while (cursor + 1 < count && onset[cursor + 1] <= tm) cursor++;
+    let pmus = 0;
+    if (cursor >= 0) {
+      const local = tm - onset[cursor];
+      if (local >= 0) {
+        if (shape === SHAPE_HALF_SINE) pmus = halfSinePmusCmH2O(local, ti, amp[cursor]);
+        else if (shape === SHAPE_RAMP) pmus = rampPmusCmH2O(local, ti, amp[cursor]);
+        else if (shape === SHAPE_PARABOLIC_EXP) pmus = parabolicExpPmusCmH2O(local, ti, s.nextS[cursor] - onset[cursor], amp[cursor]);
+      }
+    }
+    out[k] = pmus;
+  }
+  return cursor;
+}

@@ -1,10 +1,24 @@
 /**
  * The plant: lung + circuit node + driver + patient effort + sensors, advanced at the physics step.
  * The step loop calls one function per model part (lung.ts, circuit.ts, drivers.ts, effort.ts, sensors.ts)
- * and records the waveforms into preallocated typed arrays: no allocation per step.
+ * and records the waveforms into preallocated typed arrays: no allocation per step. Two hot pieces are
+ * written out in the loop with the same operations as their functions (the linear lung's recoil and the
+ * circuit node's first Newton step); doubles cross calls only through typed arrays, never as arguments or
+ * return values of functions V8 does not inline (each would be boxed in a fresh heap number).
  */
 import { elasticPressureCmH2O, localElastanceCmH2OPerL, lungAdmittanceLpsPerCmH2O } from "./lung";
-import { reliefValveFlowLps, solveCircuitNodeCmH2O, type CircuitParams } from "./circuit";
+import {
+  LEAK_NONE,
+  NODE_BACK,
+  NODE_DT,
+  NODE_G,
+  NODE_IO_LENGTH,
+  NODE_PAW,
+  NODE_QIN,
+  reliefValveFlowLps,
+  solveCircuitNodeCmH2O,
+  type CircuitParams,
+} from "./circuit";
 import {
   BAG_PRESSURE_GAIN_LPS_PER_CMH2O,
   CMD_ARM,
@@ -12,14 +26,14 @@ import {
   CMD_HOLD,
   CMD_PRESSURE,
   CMD_RELEASE,
-  bagSlopeLPerDeg,
-  bagVolumeL,
+  bagSlopeHintedLPerDeg,
+  bagVolumeHintedL,
   pulseRateForFlowHz,
   risePressureCmH2O,
   slewPulseRateHz,
   type BagTable,
 } from "./drivers";
-import { effortPmusCmH2O, type EffortSchedule } from "./effort";
+import { fillEffortPmusCmH2O, type EffortSchedule } from "./effort";
 import { firstOrderLag, lagFactor } from "./sensors";
 import type { Waveforms } from "./types";
 
@@ -31,18 +45,24 @@ const elastance = localElastanceCmH2OPerL;
 const admittance = lungAdmittanceLpsPerCmH2O;
 const reliefFlow = reliefValveFlowLps;
 const solveNode = solveCircuitNodeCmH2O;
-const slopeAt = bagSlopeLPerDeg;
-const bagVolume = bagVolumeL;
+const slopeAt = bagSlopeHintedLPerDeg;
+const bagVolume = bagVolumeHintedL;
 const rateForFlow = pulseRateForFlowHz;
 const rise = risePressureCmH2O;
 const slew = slewPulseRateHz;
-const pmusAt = effortPmusCmH2O;
+const fillPmus = fillEffortPmusCmH2O;
 const lag = firstOrderLag;
 const PRESSURE_GAIN = BAG_PRESSURE_GAIN_LPS_PER_CMH2O;
 const K_RELEASE = CMD_RELEASE;
 const K_FLOW = CMD_FLOW;
 const K_PRESSURE = CMD_PRESSURE;
 const K_ARM = CMD_ARM;
+const IO_PAW = NODE_PAW;
+const IO_DT = NODE_DT;
+const IO_QIN = NODE_QIN;
+const IO_G = NODE_G;
+const IO_BACK = NODE_BACK;
+const NO_LEAK = LEAK_NONE;
 
 export interface LungParams {
   /** Pressure at the reference volume (V = 0), cmH2O: the end-expiratory pressure the run starts at. */
@@ -82,14 +102,18 @@ export interface PlantParams {
 export class Plant {
   readonly p: PlantParams;
   // True state.
+  // Every numeric field starts as a number, never `undefined` (an uninitialised class field is defined as
+  // undefined first under ES2022 semantics): a field that once held undefined has V8's tagged
+  // representation, and each store of a double into it allocates a heap number (per run() call: measured
+  // ~2 MB of garbage per 60 s run). Fields that only ever hold numbers are stored in place.
   volumeL = 0;
-  pawCmH2O: number;
+  pawCmH2O = 0;
   flowLps = 0;
   pmusCmH2O = 0;
   armDeg = 0;
   pulseRateHz = 0;
   // Sensor filters (lagged, before noise and quantisation).
-  pawLaggedCmH2O: number;
+  pawLaggedCmH2O = 0;
   flowLaggedLpm = 0;
   // Command.
   cmdKind = CMD_RELEASE;
@@ -114,11 +138,14 @@ export class Plant {
   samples = 0;
   private stepCounter = 0;
   private effortCursor = -1;
-  private readonly aPaw: number;
-  private readonly aFlow: number;
-  private readonly gLinear: number;
-  private readonly scratch = new Float64Array(1);
+  private readonly aPaw: number = 0;
+  private readonly aFlow: number = 0;
+  private readonly gLinear: number = 0;
+  /** In/out slots of the circuit-node solver (circuit.ts NODE_*): doubles passed without boxing. */
+  private readonly nodeIo = new Float64Array(NODE_IO_LENGTH);
   private pmusBuf = new Float64Array(16);
+  /** Bag-table segments found last (drivers.ts bag*Hinted): 0 for the volume lookups, 1 for the slope. */
+  private readonly bagHints = new Int32Array(2);
 
   constructor(p: PlantParams) {
     this.p = p;
@@ -162,25 +189,6 @@ export class Plant {
     this.accReliefL = 0;
   }
 
-  /**
-   * Patient effort at the mid-point of each of the next n steps. A small loop of its own, so the JIT inlines
-   * the effort shape here instead of calling it (and boxing its result) from the long step loop.
-   */
-  private fillPmus(t0S: number, n: number): Float64Array {
-    if (this.pmusBuf.length < n) this.pmusBuf = new Float64Array(n);
-    const buf = this.pmusBuf;
-    const eff = this.p.effort;
-    const dt = this.p.dtS;
-    let cursor = this.effortCursor;
-    for (let i = 0; i < n; i++) {
-      const tm = t0S + (i + 0.5) * dt;
-      while (cursor + 1 < eff.count && eff.onsetS[cursor + 1] <= tm) cursor++;
-      buf[i] = cursor >= 0 ? pmusAt(eff, cursor, tm) : 0;
-    }
-    this.effortCursor = cursor;
-    return buf;
-  }
-
   /** Advance n physics steps from t0 (s). */
   run(t0S: number, n: number): void {
     const p = this.p;
@@ -188,10 +196,60 @@ export class Plant {
     const lung = p.lung;
     const circ = p.circuit;
     const drv = p.driver;
-    const wave = this.wave;
-    const linear = lung.e2CmH2OPerL2 === 0;
+    // Everything the loop reads that cannot change during a run (the controller changes commands and
+    // accumulators only between runs), hoisted into locals: the loop then works on registers and the
+    // typed arrays, with no property loads or calls it does not need.
+    const p0 = lung.p0CmH2O;
+    const e1 = lung.e1CmH2OPerL;
+    const e2 = lung.e2CmH2OPerL2;
+    const rLung = lung.resistanceCmH2OPerLps;
+    const linear = e2 === 0;
+    const gLinear = this.gLinear;
+    const ideal = drv.ideal;
+    const bag = drv.bag;
+    const pulsesPerDegree = drv.pulsesPerDeg;
+    const maxRate = drv.maxPulseRateHz;
+    const maxAccel = drv.maxAccelHzPerS;
+    const armTravel = drv.armTravelDeg;
+    const returnStep = drv.returnSpeedDegPerS * dt;
+    const reliefOpen = circ.reliefOpenCmH2O;
+    const reliefR = circ.reliefResistanceCmH2OPerLps;
+    // The circuit node's constants, for the written-out first Newton step below (no leak).
+    const nodeInline = circ.leakKind === NO_LEAK;
+    const cdt = circ.complianceLPerCmH2O / dt;
+    const peepValve = circ.peepValveCmH2O;
+    const rExp = circ.expiratoryResistanceCmH2OPerLps;
+    const invExp = 1 / rExp;
+    const invRelief = 1 / reliefR;
+    const inletBelow = -circ.inletCrackingCmH2O;
+    const rInlet = circ.inletResistanceCmH2OPerLps;
+    const invInlet = 1 / rInlet;
+    const aPaw = this.aPaw;
+    const aFlow = this.aFlow;
     const kind = this.cmdKind;
     const valveOpen = kind === K_RELEASE;
+    const cmdStart = this.cmdStartS;
+    const cmdStartPaw = this.cmdStartCmH2O;
+    const cmdTarget = this.cmdTargetCmH2O;
+    const cmdRise = this.cmdRiseS;
+    const cmdFlow = this.cmdFlowLps;
+    const cmdAngle = this.cmdAngleDeg;
+    const cmdRate = this.cmdPulseRateHz;
+    const armStop = kind === K_ARM ? Math.min(cmdAngle, armTravel) : armTravel;
+    const idealPressure = ideal && kind === K_PRESSURE;
+    const idealFlow = ideal && kind === K_FLOW;
+    const bagDriven = !ideal || kind === K_ARM || kind === K_RELEASE;
+    const stepCode = this.stepCode;
+    const waveT = this.wave.t;
+    const wavePaw = this.wave.paw;
+    const waveFlow = this.wave.flow;
+    const waveVolume = this.wave.volume;
+    const wavePmus = this.wave.pmus;
+    const waveArm = this.wave.arm;
+    const waveStep = this.wave.step;
+    const io = this.nodeIo;
+    const hints = this.bagHints;
+    io[IO_DT] = dt;
     let v = this.volumeL;
     let paw = this.pawCmH2O;
     let arm = this.armDeg;
@@ -210,17 +268,22 @@ export class Plant {
     let counter = this.stepCounter;
     const every = p.sampleEvery;
     const cap = p.capacity;
-    const scratch = this.scratch;
-    const pmusBuf = this.fillPmus(t0S, n);
+    // Patient effort at the mid-point of each step of this run, filled by a small loop of its own.
+    if (this.pmusBuf.length < n) this.pmusBuf = new Float64Array(n);
+    const pmusBuf = this.pmusBuf;
+    this.effortCursor = fillPmus(p.effort, this.effortCursor, t0S, dt, n, pmusBuf);
+    // Bag volume at the current arm angle, carried from one step to the next (the table lookup of the
+    // previous step's end angle is this step's start angle).
+    let bagAtArm = NaN;
 
     for (let i = 0; i < n; i++) {
       const t1 = t0S + (i + 1) * dt;
       pmus = pmusBuf[i];
       // Lung, linearised over the step.
-      const pel = elastic(v, lung.p0CmH2O, lung.e1CmH2OPerL, lung.e2CmH2OPerL2);
-      const g = linear
-        ? this.gLinear
-        : admittance(dt, elastance(v, lung.e1CmH2OPerL, lung.e2CmH2OPerL2), lung.resistanceCmH2OPerLps);
+      // A linear lung's recoil is P0 + E1·V: lung.ts's E2·max(V, 0)² term is +0 then, and adding +0 changes
+      // no value (bar the sign of a zero), so it is left off the step's critical path.
+      const pel = linear ? p0 + e1 * v : elastic(v, p0, e1, e2);
+      const g = linear ? gLinear : admittance(dt, elastance(v, e1, e2), rLung);
       const back = pel - pmus;
       // Driver.
       let qIn = 0;
@@ -228,43 +291,98 @@ export class Plant {
       // Pressure the lung sees over the step (the ideal pressure source's ramp averaged over the step,
       // exact for a linear rise: second-order accurate where the end value would lag by dt/2).
       let pawStep: number;
-      if (drv.ideal && kind === K_PRESSURE) {
-        pawNext = rise(t1, this.cmdStartS, this.cmdStartCmH2O, this.cmdTargetCmH2O, this.cmdRiseS);
-        pawStep = 0.5 * (pawNext + rise(t1 - dt, this.cmdStartS, this.cmdStartCmH2O, this.cmdTargetCmH2O, this.cmdRiseS));
+      if (idealPressure) {
+        pawNext = rise(t1, cmdStart, cmdStartPaw, cmdTarget, cmdRise);
+        pawStep = 0.5 * (pawNext + rise(t1 - dt, cmdStart, cmdStartPaw, cmdTarget, cmdRise));
       } else {
-        if (drv.ideal && kind === K_FLOW) {
-          qIn = this.cmdFlowLps > 0 ? this.cmdFlowLps : 0;
-        } else if (!drv.ideal || kind === K_ARM || kind === K_RELEASE) {
+        if (idealFlow) {
+          qIn = cmdFlow > 0 ? cmdFlow : 0;
+        } else if (bagDriven) {
           // Bag compressor (the ideal circuit uses it only for explicit arm commands, without rate limits).
           let target = 0;
           if (kind === K_FLOW) {
-            target = rateForFlow(this.cmdFlowLps, slopeAt(drv.bag, arm), drv.pulsesPerDeg);
+            target = rateForFlow(cmdFlow, slopeAt(bag, arm, hints, 1), pulsesPerDegree);
           } else if (kind === K_PRESSURE) {
-            const ref = rise(t1, this.cmdStartS, this.cmdStartCmH2O, this.cmdTargetCmH2O, this.cmdRiseS);
+            const ref = rise(t1, cmdStart, cmdStartPaw, cmdTarget, cmdRise);
             const demand = PRESSURE_GAIN * (ref - pawLag);
-            target = rateForFlow(demand, slopeAt(drv.bag, arm), drv.pulsesPerDeg);
+            target = rateForFlow(demand, slopeAt(bag, arm, hints, 1), pulsesPerDegree);
           } else if (kind === K_ARM) {
-            target = arm < this.cmdAngleDeg ? this.cmdPulseRateHz : 0;
+            target = arm < cmdAngle ? cmdRate : 0;
           }
           if (kind === K_RELEASE) {
             rate = 0;
-            arm = arm > drv.returnSpeedDegPerS * dt ? arm - drv.returnSpeedDegPerS * dt : 0;
+            arm = arm > returnStep ? arm - returnStep : 0;
+            bagAtArm = NaN;
           } else {
-            rate = drv.ideal ? Math.min(target, drv.maxPulseRateHz) : slew(rate, target, drv.maxAccelHzPerS, drv.maxPulseRateHz, dt);
-            let armNext = arm + (rate / drv.pulsesPerDeg) * dt;
-            const stop = kind === K_ARM ? Math.min(this.cmdAngleDeg, drv.armTravelDeg) : drv.armTravelDeg;
-            if (armNext >= stop) {
-              armNext = Math.max(arm, stop);
+            rate = ideal ? Math.min(target, maxRate) : slew(rate, target, maxAccel, maxRate, dt);
+            let armNext = arm + (rate / pulsesPerDegree) * dt;
+            if (armNext >= armStop) {
+              armNext = Math.max(arm, armStop);
               rate = 0;
             }
             // One-way valve: the bag only pushes.
-            const dv = bagVolume(drv.bag, armNext) - bagVolume(drv.bag, arm);
+            if (bagAtArm !== bagAtArm) bagAtArm = bagVolume(bag, arm, hints, 0);
+            const bagNext = bagVolume(bag, armNext, hints, 0);
+            const dv = bagNext - bagAtArm;
             qIn = dv > 0 ? dv / dt : 0;
             arm = armNext;
+            bagAtArm = bagNext;
           }
         }
-        solveNode(scratch, paw, dt, circ, valveOpen, qIn, g, back);
-        pawNext = scratch[0];
+        // Circuit node. Without a leak every path is linear between the valves' kinks, and circuit.ts's
+        // solver takes one Newton step from the previous Paw and stops there when the same paths conduct at
+        // the result (it is then the root exactly) — the usual case, by far. That step is written out here,
+        // with the same operations in the same order (so the same bits), because a call per step to the
+        // whole solver costs about a tenth of the engine's time; anything else (a valve opening or closing
+        // within the step, no bracket, a leak) goes to the solver, which starts from the same step.
+        let solved = false;
+        pawNext = paw;
+        if (nodeInline) {
+          const x = paw;
+          // circuit.ts: cdt·(x − pawPrev) + g·(x − back) − qIn, where x = pawPrev makes the first term +0.
+          let res = g * (x - back) - qIn;
+          let slope = cdt + g;
+          let active = 0;
+          if (valveOpen && x > peepValve) {
+            res += (x - peepValve) / rExp;
+            slope += invExp;
+            active = 1;
+          }
+          if (x > reliefOpen) {
+            res += (x - reliefOpen) / reliefR;
+            slope += invRelief;
+            active |= 2;
+          }
+          if (x < inletBelow) {
+            res -= (inletBelow - x) / rInlet;
+            slope += invInlet;
+            active |= 8;
+          }
+          if (res === 0) {
+            solved = true;
+          } else {
+            const next = x - res / slope;
+            // The solver's bracket after its first evaluation: (−∞, x) when the residual is positive, else (x, ∞).
+            if (res > 0 ? next > -Infinity && next < x : next > x && next < Infinity) {
+              let at = 0;
+              if (valveOpen && next > peepValve) at = 1;
+              if (next > reliefOpen) at |= 2;
+              if (next < inletBelow) at |= 8;
+              if (at === active) {
+                pawNext = next;
+                solved = true;
+              }
+            }
+          }
+        }
+        if (!solved) {
+          io[IO_PAW] = paw;
+          io[IO_QIN] = qIn;
+          io[IO_G] = g;
+          io[IO_BACK] = back;
+          solveNode(io, circ, valveOpen);
+          pawNext = io[IO_PAW];
+        }
         pawStep = pawNext;
       }
       paw = pawNext;
@@ -276,22 +394,22 @@ export class Plant {
         if (flow > 0) vti += flow * dt;
         if (flow > peakFlow) peakFlow = flow;
       } else if (flow < 0) vte -= flow * dt;
-      const qRelief = reliefFlow(paw, circ.reliefOpenCmH2O, circ.reliefResistanceCmH2OPerLps);
+      const qRelief = reliefFlow(paw, reliefOpen, reliefR);
       if (qRelief > 0) relief += qRelief * dt;
       // Sensors (lag only; noise and quantisation when the controller samples).
-      pawLag = lag(pawLag, paw, this.aPaw);
-      flowLag = lag(flowLag, flow * 60, this.aFlow);
+      pawLag = lag(pawLag, paw, aPaw);
+      flowLag = lag(flowLag, flow * 60, aFlow);
       // Record.
       counter++;
       if (counter >= every && samples < cap) {
         counter = 0;
-        wave.t[samples] = t1;
-        wave.paw[samples] = paw;
-        wave.flow[samples] = flow * 60;
-        wave.volume[samples] = v * 1000;
-        wave.pmus[samples] = pmus;
-        wave.arm[samples] = arm;
-        wave.step[samples] = this.stepCode;
+        waveT[samples] = t1;
+        wavePaw[samples] = paw;
+        waveFlow[samples] = flow * 60;
+        waveVolume[samples] = v * 1000;
+        wavePmus[samples] = pmus;
+        waveArm[samples] = arm;
+        waveStep[samples] = stepCode;
         samples++;
       }
     }

@@ -20,7 +20,6 @@ import { SimError } from "./errors";
 import { computeMetrics, type BreathRecord } from "./metrics";
 import { Plant, type PlantParams } from "./plant";
 import { createRng, type Rng } from "./rng";
-import { sensorReading } from "./sensors";
 import {
   patientSchema,
   rigSchema,
@@ -202,17 +201,21 @@ export function createSimulation(opts: SimOptions): LiveSimulation {
 
   // Controller state.
   let scanIndex = 0;
-  let timeS = 0;
+  // The controller's clock readings live in an object's fields, not in `let` variables: the closures below
+  // capture their variables in a context, and each double stored into a context slot is a fresh heap number
+  // (several per scan); an object field holding only numbers is updated in place.
+  const ctl = { timeS: 0, stepStartS: 0, breathStartS: 0 };
   let current: CompiledStep = sequence.steps[sequence.definition.machine.initial];
-  let stepStartS = 0;
-  let breathStartS = 0;
   let pendingCause: BreathCause | null = null;
   let open: BreathRecord | null = null;
   const records: BreathRecord[] = [];
   const alarms: Alarm[] = [];
   const steps: StepInterval[] = [];
   let transitionsThisScan = 0;
+  // Steps entered in the current scan (for the zero-time-loop message). A count over a reused array:
+  // clearing an array's length every scan releases and reallocates its backing store.
   const visited: string[] = [];
+  let visitedCount = 0;
   const monitorState = new Uint8Array(sequence.monitors.length);
   const events: SequenceEvent[] = [];
   let actorError: unknown = null;
@@ -232,7 +235,7 @@ export function createSimulation(opts: SimOptions): LiveSimulation {
   const sig = runtime.signal;
 
   function raise(spec: { kind: string; message: string; priority: Alarm["priority"] }): void {
-    alarms.push({ t: timeS, kind: spec.kind, message: spec.message, priority: spec.priority });
+    alarms.push({ t: ctl.timeS, kind: spec.kind, message: spec.message, priority: spec.priority });
   }
 
   function closeBreath(): void {
@@ -242,7 +245,7 @@ export function createSimulation(opts: SimOptions): LiveSimulation {
     open.vteL = plant.accVteL;
     open.peakFlowLps = plant.accPeakFlowLps;
     open.reliefL = plant.accReliefL;
-    open.end = timeS;
+    open.end = ctl.timeS;
     open.peep = plant.pawCmH2O;
   }
 
@@ -256,19 +259,19 @@ export function createSimulation(opts: SimOptions): LiveSimulation {
     const c = step.command;
     switch (c.kind) {
       case "flow":
-        plant.setCommand(CMD_FLOW, timeS, commandValue(c.flow, "flow") / 60);
+        plant.setCommand(CMD_FLOW, ctl.timeS, commandValue(c.flow, "flow") / 60);
         break;
       case "pressure":
-        plant.setCommand(CMD_PRESSURE, timeS, commandValue(c.target, "pressure target"), Math.max(0, commandValue(c.rise, "rise")));
+        plant.setCommand(CMD_PRESSURE, ctl.timeS, commandValue(c.target, "pressure target"), Math.max(0, commandValue(c.rise, "rise")));
         break;
       case "arm":
-        plant.setCommand(CMD_ARM, timeS, commandValue(c.angle, "arm angle"), Math.max(0, commandValue(c.pulseRate, "pulse rate")));
+        plant.setCommand(CMD_ARM, ctl.timeS, commandValue(c.angle, "arm angle"), Math.max(0, commandValue(c.pulseRate, "pulse rate")));
         break;
       case "hold":
-        plant.setCommand(CMD_HOLD, timeS);
+        plant.setCommand(CMD_HOLD, ctl.timeS);
         break;
       default:
-        plant.setCommand(CMD_RELEASE, timeS);
+        plant.setCommand(CMD_RELEASE, ctl.timeS);
     }
   }
 
@@ -276,20 +279,20 @@ export function createSimulation(opts: SimOptions): LiveSimulation {
     const step = sequence.steps[name];
     const previous = started ? current : null;
     transitionsThisScan++;
-    visited.push(name);
-    if (steps.length) steps[steps.length - 1].to = timeS;
-    steps.push({ step: name, from: timeS, to: Infinity });
+    visited[visitedCount++] = name;
+    if (steps.length) steps[steps.length - 1].to = ctl.timeS;
+    steps.push({ step: name, from: ctl.timeS, to: Infinity });
     if (previous && previous.kind === "hold" && open) open.pplat = plant.pawCmH2O;
     current = step;
     started = true;
-    stepStartS = timeS;
+    ctl.stepStartS = ctl.timeS;
     slots[sig.tStep] = 0;
     plant.stepCode = step.index;
     if (step.breathStart) {
       closeBreath();
       const trigger: TriggerSource = pendingCause ?? "timer";
       open = {
-        start: timeS,
+        start: ctl.timeS,
         trigger,
         inspEnd: null,
         end: null,
@@ -304,14 +307,14 @@ export function createSimulation(opts: SimOptions): LiveSimulation {
       records.push(open);
       plant.resetBreath();
       plant.inspiratory = true;
-      breathStartS = timeS;
+      ctl.breathStartS = ctl.timeS;
       slots[sig.breathCount] += 1;
       slots[sig.tBreath] = 0;
       slots[sig.vol] = 0;
       slots[sig.peakFlow] = 0;
       slots[sig.peakPaw] = slots[sig.paw];
     } else if (EXPIRATORY.has(step.kind) && open && open.inspEnd === null) {
-      open.inspEnd = timeS;
+      open.inspEnd = ctl.timeS;
       plant.inspiratory = false;
     }
     pendingCause = null;
@@ -329,11 +332,11 @@ export function createSimulation(opts: SimOptions): LiveSimulation {
   actor.start();
 
   function loopError(): SimError {
-    const tail = visited.slice(-Math.min(visited.length, 12));
+    const tail = visited.slice(Math.max(0, visitedCount - 12), visitedCount);
     const names = [...new Set(tail)];
     return new SimError(
       "loop",
-      `steps ${names.join(" → ")} keep transitioning without time passing (${tail.join(" → ")} …): more than ${maxTransitions} transitions in one scan at t = ${timeS.toFixed(3)} s. Give one of their timers a delay above 0.`,
+      `steps ${names.join(" → ")} keep transitioning without time passing (${tail.join(" → ")} …): more than ${maxTransitions} transitions in one scan at t = ${ctl.timeS.toFixed(3)} s. Give one of their timers a delay above 0.`,
     );
   }
 
@@ -341,47 +344,80 @@ export function createSimulation(opts: SimOptions): LiveSimulation {
     if (transitionsThisScan > maxTransitions) throw loopError();
     if (actorError) {
       const msg = actorError instanceof Error ? actorError.message : String(actorError);
-      throw new SimError("bad-input", `the sequence failed at t = ${timeS.toFixed(3)} s: ${msg}`);
+      throw new SimError("bad-input", `the sequence failed at t = ${ctl.timeS.toFixed(3)} s: ${msg}`);
     }
     if (runtime.problems.length) {
-      throw new SimError("bad-input", `at t = ${timeS.toFixed(3)} s: ${runtime.problems.join("; ")}`);
+      throw new SimError("bad-input", `at t = ${ctl.timeS.toFixed(3)} s: ${runtime.problems.join("; ")}`);
     }
   }
 
+  // Sensor constants and the signal slots, hoisted out of the scan.
+  const pNoise = sensor.pressureNoiseCmH2O;
+  const pRes = sensor.pressureResolutionCmH2O;
+  const fNoise = sensor.flowNoiseLpm;
+  const fRes = sensor.flowResolutionLpm;
+  const sPaw = sig.paw;
+  const sFlow = sig.flow;
+  const sVol = sig.vol;
+  const sPeakFlow = sig.peakFlow;
+  const sPeakPaw = sig.peakPaw;
+  const sTStep = sig.tStep;
+  const sTBreath = sig.tBreath;
+  const sArm = sig.arm;
+
   function readSignals(): void {
-    const paw = sensorReading(plant.pawLaggedCmH2O, sensor.pressureNoiseCmH2O, sensor.pressureResolutionCmH2O, noiseRng);
-    const flow = sensorReading(plant.flowLaggedLpm, sensor.flowNoiseLpm, sensor.flowResolutionLpm, noiseRng);
-    slots[sig.paw] = paw;
-    slots[sig.flow] = flow;
+    // sensors.ts sensorReading(), written out: each reading goes straight into its slot, with no double
+    // passed to or returned from a call (each would be boxed). Same operations in the same order, so the
+    // same values and the same draws from the noise generator.
+    let paw = plant.pawLaggedCmH2O;
+    if (pNoise > 0) paw = paw + pNoise * noiseRng.gaussian();
+    if (pRes > 0) paw = Math.round(paw / pRes) * pRes;
+    let flow = plant.flowLaggedLpm;
+    if (fNoise > 0) flow = flow + fNoise * noiseRng.gaussian();
+    if (fRes > 0) flow = Math.round(flow / fRes) * fRes;
+    slots[sPaw] = paw;
+    slots[sFlow] = flow;
     if (open) {
-      slots[sig.vol] += (flow * scanS * 1000) / 60;
-      if (flow > slots[sig.peakFlow]) slots[sig.peakFlow] = flow;
-      if (paw > slots[sig.peakPaw]) slots[sig.peakPaw] = paw;
+      slots[sVol] += (flow * scanS * 1000) / 60;
+      if (flow > slots[sPeakFlow]) slots[sPeakFlow] = flow;
+      if (paw > slots[sPeakPaw]) slots[sPeakPaw] = paw;
     }
-    slots[sig.tStep] = timeS - stepStartS;
-    slots[sig.tBreath] = timeS - breathStartS;
-    slots[sig.arm] = plant.armDeg;
+    slots[sTStep] = ctl.timeS - ctl.stepStartS;
+    slots[sTBreath] = ctl.timeS - ctl.breathStartS;
+    slots[sArm] = plant.armDeg;
+  }
+
+  // Bound formulas looked up once (runtime.test() looks each up by its text on every call).
+  const monitorFns = sequence.monitors.map((m) => runtime.fn(m.when.expr));
+  const monitorAlarms = sequence.monitors.map((m) => m.alarm);
+  const scanGuardFns: Array<Array<(() => number) | null>> = [];
+  for (const name of sequence.stepNames) {
+    const st = sequence.steps[name];
+    scanGuardFns[st.index] = st.scan.map((t) => (t.guard === null ? null : runtime.fn(t.guard.expr)));
   }
 
   function checkMonitors(): void {
-    const ms = sequence.monitors;
-    for (let i = 0; i < ms.length; i++) {
-      const on = runtime.test(ms[i].when.expr) ? 1 : 0;
-      if (on && !monitorState[i]) raise(ms[i].alarm);
+    for (let i = 0; i < monitorFns.length; i++) {
+      const on = monitorFns[i]() !== 0 ? 1 : 0;
+      if (on && !monitorState[i]) raise(monitorAlarms[i]);
       monitorState[i] = on;
     }
   }
 
   function scanEnabled(step: CompiledStep): boolean {
-    for (const t of step.scan) if (t.guard === null || runtime.test(t.guard.expr)) return true;
+    const guards = scanGuardFns[step.index];
+    for (let i = 0; i < guards.length; i++) {
+      const g = guards[i];
+      if (g === null || g() !== 0) return true;
+    }
     return false;
   }
 
   function housekeeping(): void {
     if (now() - wallStart > wallBudgetMs) {
-      throw new SimError("budget", `the run took longer than its wall-time budget of ${wallBudgetMs} ms (at t = ${timeS.toFixed(2)} s)`);
+      throw new SimError("budget", `the run took longer than its wall-time budget of ${wallBudgetMs} ms (at t = ${ctl.timeS.toFixed(2)} s)`);
     }
-    if (opts.shouldStop?.()) throw new SimError("cancelled", `cancelled at t = ${timeS.toFixed(2)} s`);
+    if (opts.shouldStop?.()) throw new SimError("cancelled", `cancelled at t = ${ctl.timeS.toFixed(2)} s`);
     opts.onProgress?.(scanIndex / totalScans);
   }
 
@@ -390,20 +426,20 @@ export function createSimulation(opts: SimOptions): LiveSimulation {
 
   function stepScan(): void {
     if (scanIndex >= totalScans) return;
-    timeS = scanIndex * scanS;
+    ctl.timeS = scanIndex * scanS;
     transitionsThisScan = 0;
-    visited.length = 0;
-    visited.push(current.name);
+    visitedCount = 0;
+    visited[visitedCount++] = current.name;
     readSignals();
     checkMonitors();
-    if (!clock.advanceTo(timeS * 1000, maxTransitions)) throw loopError();
+    if (!clock.advanceTo(ctl.timeS * 1000, maxTransitions)) throw loopError();
     checkAfterControl();
     while (events.length) actor.send({ type: events.shift() as SequenceEvent });
     if (opts.sendEveryScan || scanEnabled(current)) actor.send({ type: "SCAN" });
     checkAfterControl();
-    plant.run(timeS, stepsPerScan);
+    plant.run(ctl.timeS, stepsPerScan);
     scanIndex++;
-    timeS = scanIndex * scanS;
+    ctl.timeS = scanIndex * scanS;
     if (scanIndex % HOUSEKEEPING_SCANS === 0) housekeeping();
   }
 
@@ -418,10 +454,10 @@ export function createSimulation(opts: SimOptions): LiveSimulation {
       last.vteL = plant.accVteL;
       last.peakFlowLps = plant.accPeakFlowLps;
       last.reliefL = plant.accReliefL;
-      last.end = timeS;
+      last.end = ctl.timeS;
       last.peep = plant.pawCmH2O;
     }
-    const stepsNow = steps.map((s, i) => ({ ...s, to: i === steps.length - 1 ? timeS : s.to }));
+    const stepsNow = steps.map((s, i) => ({ ...s, to: i === steps.length - 1 ? ctl.timeS : s.to }));
     const pawAt = (t: number): number => {
       // Last sample at or before t (samples are ascending in time).
       let lo = 0;
@@ -435,7 +471,7 @@ export function createSimulation(opts: SimOptions): LiveSimulation {
       }
       return w.paw[lo];
     };
-    const metrics = computeMetrics({ records: recordsNow, efforts: effort, steps: stepsNow, stepKinds, timeS, pawAt });
+    const metrics = computeMetrics({ records: recordsNow, efforts: effort, steps: stepsNow, stepKinds, timeS: ctl.timeS, pawAt });
     return {
       stepNames: sequence.stepNames,
       waveforms: {
@@ -458,13 +494,13 @@ export function createSimulation(opts: SimOptions): LiveSimulation {
 
   const live: LiveSimulation = {
     get time() {
-      return timeS;
+      return ctl.timeS;
     },
     get activeStep() {
       return current.name;
     },
     advance(seconds: number) {
-      const target = Math.min(totalScans, Math.round((timeS + Math.max(0, seconds)) / scanS + 1e-9));
+      const target = Math.min(totalScans, Math.round((ctl.timeS + Math.max(0, seconds)) / scanS + 1e-9));
       while (scanIndex < target) stepScan();
     },
     stepScan,
