@@ -126,7 +126,8 @@ export function fillEffortPmusCmH2O(s: EffortSchedule, cursor: number, t0S: numb
     const tLast = t0S + (n - 1 + 0.5) * dtS;
     const nextOnset = cursor + 1 < count ? onset[cursor + 1] : Infinity;
     if (nextOnset > tLast && (cursor < 0 || tFirst - onset[cursor] >= ti)) {
-      out.fill(0, 0, n);
+      // A plain loop: for a scan's ten or so points it costs less than calling TypedArray.fill.
+      for (let k = 0; k < n; k++) out[k] = 0;
       return cursor;
     }
   }
