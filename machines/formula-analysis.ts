@@ -292,11 +292,22 @@ export function formulaSymbols(expr: string): string[] {
 
 export interface NameInfo {
   source: "signal" | "setting" | "constant";
+  /** For a setting whose unit follows a choice, the dimension at the choice's saved value. */
   dimension: InferredDimension;
   /** Choice settings: the allowed strings. */
   options?: readonly string[];
   /** A numeric setting declared without a unit: it adapts like a literal, and we say where it did. */
   unitless?: boolean;
+  /** A setting whose unit follows a choice setting (schema `unitBy`): its dimension for each option. */
+  byChoice?: ChoiceDimensions;
+}
+
+/** What a setting with `unitBy` is under each option of the choice it follows. */
+export interface ChoiceDimensions {
+  setting: string;
+  byOption: ReadonlyMap<string, { dimension: InferredDimension; unitless: boolean }>;
+  /** The choice's saved value, when it is one of its options. */
+  current: string | null;
 }
 export type FormulaScope = ReadonlyMap<string, NameInfo>;
 
@@ -313,11 +324,44 @@ export function settingDimension(s: Setting): InferredDimension {
   return dimensionOfUnit(s.unit ?? "") ?? "unknown";
 }
 
-/** Signals, then settings (a setting may not reuse a signal's name; a check reports that), then constants. */
+function unitInfo(unit: string): { dimension: InferredDimension; unitless: boolean } {
+  const dimension = dimensionOfUnit(unit) ?? "unknown";
+  return { dimension, unitless: unit.trim() === "" && dimension !== "unknown" && dimension.kind === "quantity" };
+}
+
+/**
+ * The dimensions of a setting with `unitBy`, or null when `unitBy` names no choice setting (the
+ * setting-unit-by-invalid check reports that; the setting then keeps its own `unit`). Options the
+ * `units` map leaves out fall back to the setting's `unit`; keys that are not options are ignored.
+ */
+function choiceDimensions(s: Setting, settings: Readonly<Record<string, Setting>>): ChoiceDimensions | null {
+  if (!s.unitBy || s.options?.length) return null;
+  const choice = settings[s.unitBy.setting];
+  if (!choice?.options?.length) return null;
+  const byOption = new Map<string, { dimension: InferredDimension; unitless: boolean }>();
+  for (const option of choice.options) {
+    byOption.set(option, unitInfo(Object.hasOwn(s.unitBy.units, option) ? s.unitBy.units[option] : (s.unit ?? "")));
+  }
+  const current = typeof choice.value === "string" && choice.options.includes(choice.value) ? choice.value : null;
+  return { setting: s.unitBy.setting, byOption, current };
+}
+
+/**
+ * Signals, then settings (a setting may not reuse a signal's name; a check reports that), then constants.
+ * A setting with `unitBy` gets the dimension of the choice's saved value here; inside a `? :` branch
+ * that settles the choice, the inference uses that option's dimension instead.
+ */
 export function formulaScope(settings: Readonly<Record<string, Setting>>): FormulaScope {
   const scope = new Map<string, NameInfo>();
   for (const name of Object.keys(CONSTANTS)) scope.set(name, { source: "constant", dimension: DIMENSIONS.dimensionless });
   for (const [name, s] of Object.entries(settings)) {
+    const byChoice = choiceDimensions(s, settings);
+    if (byChoice) {
+      const at = byChoice.current === null ? null : byChoice.byOption.get(byChoice.current);
+      const entry = at ?? { dimension: "unknown" as const, unitless: false };
+      scope.set(name, { source: "setting", dimension: entry.dimension, options: s.options, unitless: entry.unitless, byChoice });
+      continue;
+    }
     const dimension = settingDimension(s);
     const unitless = (s.unit ?? "").trim() === "" && dimension !== "unknown" && dimension.kind === "quantity";
     scope.set(name, { source: "setting", dimension, options: s.options, unitless });
@@ -385,11 +429,102 @@ const RELATIONAL_FN: Record<string, string> = {
 /** Units people may type after a number out of habit: we explain instead of saying "unknown name". */
 const UNIT_HINTS = new Set([...Object.keys(UNIT_SYMBOLS), "psi", "kPa", "Pa", "lpm"]);
 
+/** Choice setting → the options it can still have where the inference is (inside `? :` branches). */
+type Narrowing = ReadonlyMap<string, ReadonlySet<string>>;
+
+/** How a condition settles choices: the options left when it is true, and when it is false. */
+interface ChoiceTest {
+  whenTrue: Narrowing;
+  whenFalse: Narrowing;
+}
+
 class Inference {
   readonly problems: FormulaProblem[] = [];
   /** Unit-less setting → the dimensions it was taken as, reported once per setting at the end. */
   private readonly adapted = new Map<string, Set<string>>();
+  private narrowing: Narrowing = new Map();
   constructor(private readonly scope: FormulaScope) {}
+
+  /** Options `setting` can have here: all of them, less those an enclosing branch ruled out. */
+  private optionsHere(setting: string): readonly string[] {
+    const all = this.scope.get(setting)?.options ?? [];
+    const left = this.narrowing.get(setting);
+    return left ? all.filter((o) => left.has(o)) : all;
+  }
+
+  /**
+   * `choice == "option"` (either way round, in parentheses, under `not`) and `and`/`or` of such tests:
+   * the options of each choice left on each side. Anything else settles nothing.
+   */
+  private choiceTest(node: MathNode): ChoiceTest | null {
+    const v = view(node);
+    if (v.type === "ParenthesisNode") return this.choiceTest(v.content);
+    if (v.type !== "OperatorNode") return null;
+    if (v.fn === "not") {
+      const inner = this.choiceTest(v.args[0]);
+      return inner && { whenTrue: inner.whenFalse, whenFalse: inner.whenTrue };
+    }
+    if (v.fn === "and" || v.fn === "or") {
+      const [a, b] = v.args.map((arg) => this.choiceTest(arg));
+      if (!a && !b) return null;
+      // An operand that settles nothing constrains nothing: treat it as a test that leaves every option.
+      const none: ChoiceTest = { whenTrue: new Map(), whenFalse: new Map() };
+      const x = a ?? none;
+      const y = b ?? none;
+      // `x and y` holds when both hold and fails when either fails; `or` the other way round.
+      return v.fn === "and"
+        ? { whenTrue: meet(x.whenTrue, y.whenTrue), whenFalse: join(x.whenFalse, y.whenFalse) }
+        : { whenTrue: join(x.whenTrue, y.whenTrue), whenFalse: meet(x.whenFalse, y.whenFalse) };
+    }
+    if ((v.fn !== "equal" && v.fn !== "unequal") || v.args.length !== 2) return null;
+    const [x, y] = v.args.map(view);
+    const pair =
+      x.type === "SymbolNode" && y.type === "ConstantNode" && typeof y.value === "string"
+        ? { setting: x.name, option: y.value }
+        : y.type === "SymbolNode" && x.type === "ConstantNode" && typeof x.value === "string"
+          ? { setting: y.name, option: x.value }
+          : null;
+    if (!pair || !this.scope.get(pair.setting)?.options?.length) return null;
+    const here = this.optionsHere(pair.setting);
+    const equal = new Map([[pair.setting, new Set(here.filter((o) => o === pair.option))]]);
+    const different = new Map([[pair.setting, new Set(here.filter((o) => o !== pair.option))]]);
+    return v.fn === "equal" ? { whenTrue: equal, whenFalse: different } : { whenTrue: different, whenFalse: equal };
+  }
+
+  /** Infer `node` with the choices narrowed further by `n`. */
+  private under(n: Narrowing | undefined, node: MathNode): Inferred {
+    if (!n || n.size === 0) return this.infer(node);
+    const outer = this.narrowing;
+    this.narrowing = meet(outer, n);
+    try {
+      return this.infer(node);
+    } finally {
+      this.narrowing = outer;
+    }
+  }
+
+  /**
+   * A setting whose unit follows a choice: the dimension its options still possible here agree on;
+   * where they disagree, the one at the choice's saved value; unknown (unchecked) when even that is
+   * ruled out, which only happens with three or more options of different units.
+   */
+  private choiceDependent(name: string, c: ChoiceDimensions): Inferred {
+    const here = this.optionsHere(c.setting).filter((o) => c.byOption.has(o));
+    const entries = here.map((o) => c.byOption.get(o)!);
+    const agree =
+      entries.length > 0 &&
+      entries.every(
+        (e) =>
+          e.unitless === entries[0].unitless &&
+          (e.dimension === "unknown" || entries[0].dimension === "unknown"
+            ? e.dimension === entries[0].dimension
+            : sameDimension(e.dimension, entries[0].dimension)),
+      );
+    const entry = agree ? entries[0] : c.current !== null && here.includes(c.current) ? c.byOption.get(c.current)! : null;
+    if (!entry) return UNKNOWN;
+    if (entry.unitless) return { dim: DIMENSIONS.dimensionless, free: true, unitless: name };
+    return { dim: entry.dimension, free: false };
+  }
 
   /** Note that a free value met `dim`; only interesting when it is a unit-less setting meeting a unit. */
   adapt(free: Inferred, dim: InferredDimension): void {
@@ -450,12 +585,18 @@ class Inference {
       this.report("unknown-name", `\`${name}\` is not a signal or a setting.${hint}`, name);
       return UNKNOWN;
     }
+    if (info.byChoice) return this.choiceDependent(name, info.byChoice);
     if (info.unitless) return { dim: DIMENSIONS.dimensionless, free: true, unitless: name };
     return { dim: info.dimension, free: false };
   }
 
   private operator(node: MathNode, fn: string, argNodes: MathNode[]): Inferred {
-    const args = argNodes.map((a) => this.infer(a));
+    // The right operand of `and` only matters when the left holds (of `or`, when it does not), so a
+    // choice test on the left settles the choice on the right, as a `? :` condition does.
+    const left = (fn === "and" || fn === "or") && argNodes.length === 2 ? this.choiceTest(argNodes[0]) : null;
+    const args = left
+      ? [this.infer(argNodes[0]), this.under(fn === "and" ? left.whenTrue : left.whenFalse, argNodes[1])]
+      : argNodes.map((a) => this.infer(a));
     const text = node.toString();
     if (COMPARISONS.has(fn)) {
       this.comparable(args[0], args[1], text, fn === "equal" || fn === "unequal");
@@ -622,8 +763,9 @@ class Inference {
 
   private conditional(node: MathNode, c: MathNode, t: MathNode, f: MathNode): Inferred {
     this.condition(this.infer(c), c, "The `? :` test");
-    const a = this.infer(t);
-    const b = this.infer(f);
+    const test = this.choiceTest(c);
+    const a = this.under(test?.whenTrue, t);
+    const b = this.under(test?.whenFalse, f);
     if (a.dim === "unknown" || b.dim === "unknown") return UNKNOWN;
     if (a.dim.kind === "quantity" && b.dim.kind === "quantity") return this.same(a, b, node.toString(), "choose between");
     if (a.dim.kind === b.dim.kind) return a;
@@ -672,6 +814,26 @@ class Inference {
   powerCall(args: Inferred[], nodes: MathNode[]): Inferred {
     return this.power(args[0], nodes[0], args[1], nodes[1]);
   }
+}
+
+/** Both narrowings at once: per choice, the options both allow. */
+function meet(a: Narrowing, b: Narrowing): Narrowing {
+  const out = new Map(a);
+  for (const [k, v] of b) {
+    const prior = out.get(k);
+    out.set(k, prior ? new Set([...v].filter((o) => prior.has(o))) : v);
+  }
+  return out;
+}
+
+/** Either narrowing: per choice narrowed on both sides, the options either allows; others are free. */
+function join(a: Narrowing, b: Narrowing): Narrowing {
+  const out = new Map<string, ReadonlySet<string>>();
+  for (const [k, v] of a) {
+    const other = b.get(k);
+    if (other) out.set(k, new Set([...v, ...other]));
+  }
+  return out;
 }
 
 function unsupportedMessage(nodeType: string, node: MathNode): string {

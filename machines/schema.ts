@@ -119,6 +119,20 @@ export const machineConfig = z
 export type MachineConfig = z.infer<typeof machineConfig>;
 
 /**
+ * A unit that depends on a choice setting: `{ setting: "trigger", units: { pressure: "cmH2O", flow: "L/min" } }`
+ * makes a trigger sensitivity cmH2O while `trigger` is "pressure" and L/min while it is "flow". Options
+ * not listed keep the setting's own `unit`. That the named setting exists and is a choice whose options
+ * include every key is a static check (setting-unit-by-invalid), since it needs the other settings.
+ */
+export const unitBy = z
+  .object({
+    setting: identifier,
+    units: z.record(z.string().min(1), z.string().max(20)),
+  })
+  .strict();
+export type UnitBy = z.infer<typeof unitBy>;
+
+/**
  * A named value with units and bounds. `value` is the default; `formula` makes it derived
  * (then `value` is ignored). `options` makes it a choice (value is one of the strings).
  */
@@ -126,6 +140,8 @@ export const setting = z
   .object({
     label: z.string().max(80).optional(),
     unit: z.string().max(20).default(""),
+    /** Optional: the unit follows a choice setting (see `unitBy`); `unit` is the fallback. */
+    unitBy: unitBy.optional(),
     value: z.union([z.number(), z.string()]).optional(),
     min: z.number().optional(),
     max: z.number().optional(),
@@ -136,6 +152,20 @@ export const setting = z
   })
   .strict();
 export type Setting = z.infer<typeof setting>;
+
+/**
+ * The unit a setting has right now: the one its `unitBy` lists for the choice's current value, else its
+ * own `unit`. `values` overrides the saved choice values (a run's or the CLI's settings).
+ */
+export function effectiveUnit(
+  s: Pick<Setting, "unit" | "unitBy">,
+  settings: Readonly<Record<string, Pick<Setting, "value">>>,
+  values: Readonly<Record<string, number | string>> = {},
+): string {
+  if (!s.unitBy) return s.unit ?? "";
+  const choice = values[s.unitBy.setting] ?? settings[s.unitBy.setting]?.value;
+  return typeof choice === "string" && Object.hasOwn(s.unitBy.units, choice) ? s.unitBy.units[choice] : (s.unit ?? "");
+}
 
 /** Conditions watched every scan whatever the step; raise an alarm on the rising edge. */
 export const monitor = z

@@ -5,7 +5,7 @@
 import { readFileSync, writeFileSync } from "node:fs";
 import { SequenceError } from "@/machines/compile";
 import { TEMPLATE_IDS, getTemplate } from "@/machines/templates";
-import type { SequenceDefinition } from "@/machines/schema";
+import { effectiveUnit, type SequenceDefinition } from "@/machines/schema";
 import { DEFAULT_RIG } from "@/lib/sim/default-rig";
 import { SimError } from "@/lib/sim/errors";
 import { simulate } from "@/lib/sim/simulate";
@@ -227,17 +227,23 @@ function buildPatient(a: Args): { patient: PatientInput; effortSeed?: number } {
 
 function buildSettings(def: SequenceDefinition, pairs: Array<[string, string]>): Record<string, number | string> {
   const out: Record<string, number | string> = {};
-  for (const [name, text] of pairs) {
-    const s = def.settings[name];
-    if (!s) {
+  for (const [name] of pairs) {
+    if (!def.settings[name]) {
       throw new CliError(`--set ${name}: unknown setting (settings: ${Object.keys(def.settings).join(", ")})`);
     }
+  }
+  // Choices first: a unitBy setting (trigger sensitivity) is read in the unit of the choice as set here,
+  // whichever order the --set options came in.
+  const choices: Record<string, string> = {};
+  for (const [name, text] of pairs) if (def.settings[name].options) choices[name] = text;
+  for (const [name, text] of pairs) {
+    const s = def.settings[name];
     if (s.options) {
       out[name] = text;
       continue;
     }
     try {
-      out[name] = parseSettingValue(text, s.unit);
+      out[name] = parseSettingValue(text, effectiveUnit(s, def.settings, choices));
     } catch (e) {
       if (e instanceof UnitError) throw new CliError(`--set ${name}: ${e.message}`);
       throw e;

@@ -1,7 +1,7 @@
 "use client";
 /** One row of the settings table: every field of a setting edited in place, units beside numbers. */
 import { useEffect, useRef } from "react";
-import type { Setting } from "@/machines/schema";
+import { effectiveUnit, type Setting } from "@/machines/schema";
 import { EditableCell } from "./editable-cell";
 import type { DerivedValue } from "./derived-values";
 import { formatQuantity } from "./parse-quantity";
@@ -29,6 +29,9 @@ export function SettingRow({ name, setting: s, settings, derived, readOnly, high
     if (highlighted) row.current?.scrollIntoView({ block: "nearest", behavior: "smooth" });
   }, [highlighted]);
 
+  // A unitBy setting (a trigger sensitivity) is in the unit of the current choice: show and convert by it.
+  const unit = effectiveUnit(s, settings);
+
   const set = (patch: Partial<Setting>) => {
     const next: Setting = { ...s, ...patch };
     for (const k of Object.keys(patch) as Array<keyof Setting>) if (patch[k] === undefined) delete next[k];
@@ -42,10 +45,15 @@ export function SettingRow({ name, setting: s, settings, derived, readOnly, high
         {s.label ? <span className="text-[11px] text-ink-500">{s.label}</span> : null}
       </td>
       <td className="p-1">
-        <ValueCell name={name} s={s} derived={derived} readOnly={readOnly} onValue={(value) => set({ value })} />
+        <ValueCell name={name} s={s} unit={unit} derived={derived} readOnly={readOnly} onValue={(value) => set({ value })} />
       </td>
       <td className="p-1">
-        <EditableCell label={`Unit of ${name}`} value={s.unit} mono disabled={readOnly} width="w-24" validate={checkUnit} onCommit={(unit) => set({ unit })} testId={`setting-unit-${name}`} />
+        <EditableCell label={`Unit of ${name}`} value={s.unit} mono disabled={readOnly} width="w-24" validate={checkUnit} onCommit={(u) => set({ unit: u })} testId={`setting-unit-${name}`} />
+        {s.unitBy ? (
+          <span className="block text-[11px] text-ink-500" data-testid={`setting-effective-unit-${name}`}>
+            {unit || "no unit"} while {s.unitBy.setting} is {JSON.stringify(settings[s.unitBy.setting]?.value ?? "")}
+          </span>
+        ) : null}
       </td>
       <td className="p-1">
         <EditableCell
@@ -53,8 +61,8 @@ export function SettingRow({ name, setting: s, settings, derived, readOnly, high
           value={numberText(s.min)}
           disabled={readOnly}
           width="w-20"
-          validate={(d) => checkBound(d, s, "min")}
-          onCommit={(d) => set({ min: checkBound(d, s, "min").value })}
+          validate={(d) => checkBound(d, s, "min", unit)}
+          onCommit={(d) => set({ min: checkBound(d, s, "min", unit).value })}
           testId={`setting-min-${name}`}
         />
       </td>
@@ -64,8 +72,8 @@ export function SettingRow({ name, setting: s, settings, derived, readOnly, high
           value={numberText(s.max)}
           disabled={readOnly}
           width="w-20"
-          validate={(d) => checkBound(d, s, "max")}
-          onCommit={(d) => set({ max: checkBound(d, s, "max").value })}
+          validate={(d) => checkBound(d, s, "max", unit)}
+          onCommit={(d) => set({ max: checkBound(d, s, "max", unit).value })}
           testId={`setting-max-${name}`}
         />
       </td>
@@ -100,11 +108,11 @@ export function SettingRow({ name, setting: s, settings, derived, readOnly, high
   );
 }
 
-function ValueCell({ name, s, derived, readOnly, onValue }: { name: string; s: Setting; derived: DerivedValue | undefined; readOnly: boolean; onValue: (v: number | string) => void }) {
+function ValueCell({ name, s, unit, derived, readOnly, onValue }: { name: string; s: Setting; unit: string; derived: DerivedValue | undefined; readOnly: boolean; onValue: (v: number | string) => void }) {
   if (s.formula) {
     return (
       <span className="block px-1.5 py-0.5 text-sm text-ink-700" data-testid={`setting-value-${name}`}>
-        {derived?.ok ? `= ${formatQuantity(derived.value, s.unit)}` : <span className="text-red-700">{derived?.error ?? "not computed"}</span>}
+        {derived?.ok ? `= ${formatQuantity(derived.value, unit)}` : <span className="text-red-700">{derived?.error ?? "not computed"}</span>}
         <span className="ml-1 text-[11px] text-ink-500">derived</span>
       </span>
     );
@@ -120,14 +128,14 @@ function ValueCell({ name, s, derived, readOnly, onValue }: { name: string; s: S
   }
   return (
     <EditableCell
-      label={`Value of ${name}${s.unit ? ` in ${s.unit}` : ""}`}
+      label={`Value of ${name}${unit ? ` in ${unit}` : ""}`}
       value={typeof s.value === "number" ? numberText(s.value) : String(s.value ?? "")}
       disabled={readOnly}
       width="w-28"
-      placeholder={s.unit ? `e.g. 5 ${s.unit}` : undefined}
-      validate={(d) => checkValue(d, s)}
+      placeholder={unit ? `e.g. 5 ${unit}` : undefined}
+      validate={(d) => checkValue(d, s, unit)}
       onCommit={(d) => {
-        const c = checkValue(d, s);
+        const c = checkValue(d, s, unit);
         if (c.value !== undefined) onValue(Number(c.value.toPrecision(10)));
       }}
       testId={`setting-value-${name}`}

@@ -14,21 +14,22 @@ export function checkSettingName(draft: string, current: string, settings: Reado
   return { error: null, hint: draft !== current ? "formulas using the old name are updated" : null };
 }
 
-export function checkValue(draft: string, s: Setting): CellCheck & { value?: number } {
-  const r = parseQuantity(draft, s.unit);
+/** `unit` is the setting's effective unit (schema `effectiveUnit`): a unitBy setting converts by the current choice. */
+export function checkValue(draft: string, s: Setting, unit: string = s.unit): CellCheck & { value?: number } {
+  const r = parseQuantity(draft, unit);
   if (!r.ok) return { error: r.error };
-  if (s.min !== undefined && r.value < s.min) return { error: `below the minimum, ${formatQuantity(s.min, s.unit)}` };
-  if (s.max !== undefined && r.value > s.max) return { error: `above the maximum, ${formatQuantity(s.max, s.unit)}` };
-  return { error: null, hint: r.converted ? `= ${formatQuantity(r.value, s.unit)}` : null, value: r.value };
+  if (s.min !== undefined && r.value < s.min) return { error: `below the minimum, ${formatQuantity(s.min, unit)}` };
+  if (s.max !== undefined && r.value > s.max) return { error: `above the maximum, ${formatQuantity(s.max, unit)}` };
+  return { error: null, hint: r.converted ? `= ${formatQuantity(r.value, unit)}` : null, value: r.value };
 }
 
-export function checkBound(draft: string, s: Setting, which: "min" | "max"): CellCheck & { value?: number | undefined } {
+export function checkBound(draft: string, s: Setting, which: "min" | "max", unit: string = s.unit): CellCheck & { value?: number | undefined } {
   if (draft.trim() === "") return { error: null, hint: "no bound", value: undefined };
-  const r = parseQuantity(draft, s.unit);
+  const r = parseQuantity(draft, unit);
   if (!r.ok) return { error: r.error };
   if (which === "min" && s.max !== undefined && r.value > s.max) return { error: "the minimum is above the maximum" };
   if (which === "max" && s.min !== undefined && r.value < s.min) return { error: "the maximum is below the minimum" };
-  return { error: null, hint: r.converted ? `= ${formatQuantity(r.value, s.unit)}` : null, value: r.value };
+  return { error: null, hint: r.converted ? `= ${formatQuantity(r.value, unit)}` : null, value: r.value };
 }
 
 export function checkUnit(draft: string): CellCheck {

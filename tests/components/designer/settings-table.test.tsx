@@ -101,6 +101,29 @@ describe("settings table", () => {
     expect(screen.queryByTestId("setting-remove-PEEP")).toBeNull();
   });
 
+  it("shows and converts a trigger sensitivity by the unit of the current trigger (unitBy)", () => {
+    const { onChange } = renderTable();
+    expect(screen.getByTestId("setting-effective-unit-sensitivity")).toHaveTextContent('cmH2O while trigger is "pressure"');
+    const cell = screen.getByTestId("setting-value-sensitivity");
+    fireEvent.change(cell, { target: { value: "2 hPa" } });
+    // 1 hPa = 1.019716 cmH2O (check-values.md "Units", derived)
+    expect(screen.getByText("= 2.03943 cmH2O")).toBeInTheDocument();
+    fireEvent.keyDown(cell, { key: "Enter" });
+    expect(lastDef(onChange).settings.sensitivity.value).toBeCloseTo(2.03943, 4);
+  });
+
+  it("with a flow trigger, the sensitivity is in L/min and a pressure is refused", () => {
+    const def = assistVolume();
+    def.settings.trigger.value = "flow";
+    renderTable(def);
+    expect(screen.getByTestId("setting-effective-unit-sensitivity")).toHaveTextContent('L/min while trigger is "flow"');
+    const cell = screen.getByTestId("setting-value-sensitivity");
+    fireEvent.change(cell, { target: { value: "2 hPa" } });
+    expect(screen.getByRole("alert")).toHaveTextContent(/expected a flow \(L\/min\)/i);
+    fireEvent.change(cell, { target: { value: "50 mL/s" } });
+    expect(screen.getByText("= 3 L/min")).toBeInTheDocument();
+  });
+
   it("computes Ti/Te, Vt from PBW and the pulse rate for a flow", () => {
     renderTable();
     fireEvent.click(screen.getByText("Calculators"));

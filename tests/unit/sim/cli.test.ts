@@ -61,6 +61,8 @@ describe("npm run sim", () => {
     ["negative compliance", ["--template", "pressure-control", "--lung", "C=-5"], /compliance must be above 0/],
     ["setting out of bounds", ["--template", "pressure-control", "--set", "PEEP=80"], /PEEP.*above its maximum/],
     ["unknown option", ["--template", "pressure-control", "--frobnicate"], /unknown option/],
+    // The sensitivity's unit follows the trigger (unitBy), whatever the order of the --set options.
+    ["sensitivity in a pressure unit with a flow trigger", ["--template", "assist-pressure", "--set", "sensitivity=2 hPa", "--set", "trigger=flow"], /sensitivity: expected a flow/],
   ];
   for (const [what, args, msg] of bad) {
     it(`exits 2 with a message for bad input: ${what}`, () => {
