@@ -29,6 +29,9 @@ export const QUANTITIES = {
   elastance: { canonical: "cmH2O/L", label: "an elastance" },
   angle: { canonical: "deg", label: "an angle" },
   frequency: { canonical: "Hz", label: "a frequency" },
+  // The rig profile's actuator limits: arm return speed and how fast the step pulse rate may ramp.
+  angularSpeed: { canonical: "deg/s", label: "an angular speed" },
+  pulseAcceleration: { canonical: "Hz/s", label: "a pulse-rate acceleration" },
   length: { canonical: "cm", label: "a length" },
   mass: { canonical: "kg", label: "a mass" },
   dimensionless: { canonical: "", label: "a plain number" },

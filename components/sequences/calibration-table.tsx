@@ -1,17 +1,23 @@
 "use client";
 /**
  * The bag calibration rows of the rig form (angle → displaced volume), with the plot beside them so a
- * mistyped point shows as a kink before it reaches a simulation.
+ * mistyped point shows as a kink before it reaches a simulation. Like the other rig fields, a point may
+ * be typed with units ("0.5 L", "0.2 rad"); the form's resolver converts it (rig-units.ts).
  */
 import { useFieldArray, useWatch, type Control, type FieldErrors, type UseFormRegister } from "react-hook-form";
-import type { RigInput } from "@/lib/sim/types";
+import type { Rig } from "@/lib/sim/types";
 import { CalibrationPlot } from "./calibration-plot";
+import type { RigFormValues } from "./rig-fields";
+import { numberOf } from "./rig-units";
 
 interface Props {
-  control: Control<RigInput, unknown, unknown>;
-  register: UseFormRegister<RigInput>;
-  errors: FieldErrors<RigInput>;
+  control: Control<RigFormValues, unknown, Rig>;
+  register: UseFormRegister<RigFormValues>;
+  errors: FieldErrors<RigFormValues>;
 }
+
+const angleOf = (v: unknown): number => numberOf(v, "angle");
+const volumeOf = (v: unknown): number => numberOf(v, "volume");
 
 export function CalibrationTable({ control, register, errors }: Props) {
   const { fields, append, remove, insert } = useFieldArray({ control, name: "bagCalibration" });
@@ -19,14 +25,16 @@ export function CalibrationTable({ control, register, errors }: Props) {
   const tableError = errors.bagCalibration?.message ?? errors.bagCalibration?.root?.message;
 
   function addAfter(index: number) {
+    // Rows may hold text with units while being typed: read them as numbers (NaN when unreadable).
     const here = points[index];
     const next = points[index + 1];
     if (!here) return append({ angleDeg: 0, volumeMl: 0 });
-    if (!next) return append({ angleDeg: here.angleDeg + 10, volumeMl: here.volumeMl });
+    const [a, v] = [angleOf(here.angleDeg), volumeOf(here.volumeMl)];
+    if (!next) return append({ angleDeg: a + 10, volumeMl: v });
     // A new row between two points starts at their midpoint, so the curve keeps its shape.
     insert(index + 1, {
-      angleDeg: (here.angleDeg + next.angleDeg) / 2,
-      volumeMl: (here.volumeMl + next.volumeMl) / 2,
+      angleDeg: (a + angleOf(next.angleDeg)) / 2,
+      volumeMl: (v + volumeOf(next.volumeMl)) / 2,
     });
   }
 
@@ -61,11 +69,12 @@ export function CalibrationTable({ control, register, errors }: Props) {
                   <td className="px-2 py-1">
                     <input
                       aria-label={`Angle of point ${index + 1}`}
-                      type="number"
-                      step="any"
+                      type="text"
+                      inputMode="decimal"
+                      spellCheck={false}
                       aria-invalid={rowErrors?.angleDeg ? true : undefined}
                       className="w-24 h-8 rounded-md border border-line bg-surface px-2 font-mono text-sm tabular-nums text-ink-900 focus:border-glass-600 focus:outline-none focus:ring-2 focus:ring-glass-200 disabled:bg-ink-50 aria-[invalid=true]:border-danger-600"
-                      {...register(`bagCalibration.${index}.angleDeg`, { valueAsNumber: true })}
+                      {...register(`bagCalibration.${index}.angleDeg`)}
                     />
                     {rowErrors?.angleDeg?.message ? (
                       <div role="alert" className="text-xs text-danger-700">
@@ -76,11 +85,12 @@ export function CalibrationTable({ control, register, errors }: Props) {
                   <td className="px-2 py-1">
                     <input
                       aria-label={`Volume of point ${index + 1}`}
-                      type="number"
-                      step="any"
+                      type="text"
+                      inputMode="decimal"
+                      spellCheck={false}
                       aria-invalid={rowErrors?.volumeMl ? true : undefined}
                       className="w-24 h-8 rounded-md border border-line bg-surface px-2 font-mono text-sm tabular-nums text-ink-900 focus:border-glass-600 focus:outline-none focus:ring-2 focus:ring-glass-200 disabled:bg-ink-50 aria-[invalid=true]:border-danger-600"
-                      {...register(`bagCalibration.${index}.volumeMl`, { valueAsNumber: true })}
+                      {...register(`bagCalibration.${index}.volumeMl`)}
                     />
                     {rowErrors?.volumeMl?.message ? (
                       <div role="alert" className="text-xs text-danger-700">
@@ -113,7 +123,7 @@ export function CalibrationTable({ control, register, errors }: Props) {
           </tbody>
         </table>
         <CalibrationPlot
-          points={points.map((p) => ({ angleDeg: Number(p?.angleDeg), volumeMl: Number(p?.volumeMl) }))}
+          points={points.map((p) => ({ angleDeg: angleOf(p?.angleDeg), volumeMl: volumeOf(p?.volumeMl) }))}
         />
       </div>
       {tableError ? (

@@ -1,13 +1,15 @@
 "use client";
 /**
  * The rig profile form: every field of `rigSchema` (lib/sim/types.ts), validated in the browser with
- * the same schema the PUT handler uses. Read-only users get the same layout with inputs disabled.
+ * the same schema the PUT handler uses. Numbers may be typed with units ("0.1 psi", "15 ms") and are
+ * stored in the canonical unit shown beside each field (rig-units.ts). Read-only users get the same
+ * layout with inputs disabled.
  */
 import { useState } from "react";
-import { useForm, useWatch, type FieldPath } from "react-hook-form";
-import { zodResolver } from "@hookform/resolvers/zod";
-import { rigSchema, type Rig, type RigInput } from "@/lib/sim/types";
-import { RIG_FIELD_GROUPS, type RigField } from "./rig-fields";
+import { get, useForm, useWatch, type FieldPath } from "react-hook-form";
+import type { Rig } from "@/lib/sim/types";
+import { PEEP_VALVE_FIELD, RIG_FIELD_GROUPS, type RigField, type RigFormValues } from "./rig-fields";
+import { quantityOf, readQuantity, rigResolver } from "./rig-units";
 import { CalibrationTable } from "./calibration-table";
 import { formatTime } from "./format";
 import { apiFetch, ApiClientError } from "@/components/ui/api-client";
@@ -39,14 +41,21 @@ function errorAt(errors: unknown, path: string): string | undefined {
 export function RigForm({ projectId, rig, updatedAt, canEdit }: Props) {
   const [status, setStatus] = useState<Status>({ kind: "idle" });
   const [savedAt, setSavedAt] = useState(updatedAt);
-  const form = useForm<RigInput, unknown, Rig>({
-    resolver: zodResolver(rigSchema),
+  const form = useForm<RigFormValues, unknown, Rig>({
+    resolver: rigResolver,
     defaultValues: rig,
     mode: "onBlur",
   });
   const { register, handleSubmit, control, formState, setError, reset } = form;
-  const peepValve = useWatch({ control, name: "peepValveCmH2O" });
+  const values = useWatch({ control }) as RigFormValues;
+  const peepValve = values.peepValveCmH2O;
   const peepFollowsSequence = peepValve === null || peepValve === undefined;
+
+  /** "= 7.0307 cmH2O" under a field whose value was typed with units, so the stored number is visible. */
+  function conversion(field: RigField): string | null {
+    const r = readQuantity(get(values, field.path), quantityOf(field, values));
+    return r.ok && r.converted ? `= ${Number(r.value.toPrecision(6))} ${field.unit}` : null;
+  }
 
   async function save(values: Rig) {
     setStatus({ kind: "saving" });
@@ -61,34 +70,44 @@ export function RigForm({ projectId, rig, updatedAt, canEdit }: Props) {
     } catch (err) {
       if (err instanceof ApiClientError) {
         for (const [field, messages] of Object.entries(err.fields)) {
-          setError(field.replace(/^rig\./, "") as FieldPath<RigInput>, { message: messages[0] });
+          setError(field.replace(/^rig\./, "") as FieldPath<RigFormValues>, { message: messages[0] });
         }
       }
       setStatus({ kind: "error", message: err instanceof Error ? err.message : "The profile was not saved." });
     }
   }
 
-  function numberInput(field: RigField) {
+  function numberInput(field: RigField, labelText = field.label, ariaLabel?: string) {
     const message = errorAt(formState.errors, field.path);
     const id = `rig-${field.path.replace(/\./g, "-")}`;
+    const converted = message ? null : conversion(field);
     return (
       <div key={field.path} className="flex flex-col gap-1">
-        <label htmlFor={id} className="text-sm font-medium text-ink-800">
-          {field.label}
-        </label>
+        {labelText ? (
+          <label htmlFor={id} className="text-sm font-medium text-ink-800">
+            {labelText}
+          </label>
+        ) : null}
         <div className="flex items-center gap-2">
+          {/* Text, not type="number": "0.1 psi" must reach the unit parser. */}
           <input
             id={id}
-            type="number"
-            step={field.step}
+            type="text"
             inputMode="decimal"
+            spellCheck={false}
+            aria-label={ariaLabel}
             aria-invalid={message ? true : undefined}
             aria-describedby={message ? `${id}-error` : undefined}
             className="w-32 h-9 rounded-md border border-line bg-surface px-2 font-mono text-sm tabular-nums text-ink-900 focus:border-glass-600 focus:outline-none focus:ring-2 focus:ring-glass-200 disabled:bg-ink-50 aria-[invalid=true]:border-danger-600"
-            {...register(field.path, { valueAsNumber: true })}
+            {...register(field.path)}
           />
           <span className="text-xs text-ink-500">{field.unit}</span>
         </div>
+        {converted ? (
+          <span className="text-xs text-ink-500" data-testid={`${id}-converted`}>
+            {converted}
+          </span>
+        ) : null}
         {field.hint ? <span className="text-xs text-ink-400">{field.hint}</span> : null}
         {message ? (
           <span id={`${id}-error`} role="alert" className="text-xs text-danger-700">
@@ -132,7 +151,7 @@ export function RigForm({ projectId, rig, updatedAt, canEdit }: Props) {
               <p className="text-sm text-ink-500">{group.description}</p>
             </div>
             <div className="grid grid-cols-1 gap-4 sm:grid-cols-2 lg:grid-cols-3">
-              {group.fields.map(numberInput)}
+              {group.fields.map((field) => numberInput(field))}
               {group.title === "Circuit" ? (
                 <div className="flex flex-col gap-1">
                   <label htmlFor="rig-circuit-leak-kind" className="text-sm font-medium text-ink-800">
@@ -165,23 +184,7 @@ export function RigForm({ projectId, rig, updatedAt, canEdit }: Props) {
                     />
                     follows the sequence&apos;s PEEP setting
                   </label>
-                  {peepFollowsSequence ? null : (
-                    <div className="flex items-center gap-2">
-                      <input
-                        aria-label="PEEP valve setting"
-                        type="number"
-                        step="any"
-                        className="w-32 h-9 rounded-md border border-line bg-surface px-2 font-mono text-sm text-ink-900 disabled:bg-ink-50"
-                        {...register("peepValveCmH2O", { valueAsNumber: true })}
-                      />
-                      <span className="text-xs text-ink-500">cmH2O</span>
-                    </div>
-                  )}
-                  {errorAt(formState.errors, "peepValveCmH2O") ? (
-                    <span role="alert" className="text-xs text-danger-700">
-                      {errorAt(formState.errors, "peepValveCmH2O")}
-                    </span>
-                  ) : null}
+                  {peepFollowsSequence ? null : numberInput(PEEP_VALVE_FIELD, "", "PEEP valve setting")}
                 </div>
               ) : null}
             </div>

@@ -25,6 +25,13 @@ describe("parseQuantity", () => {
     expect(parseQuantity("1 L/s", "flow")).toBe(60);
   });
 
+  it("the rig's actuator limits: arm speed in deg/s, pulse-rate ramp in Hz/s (common practice units)", () => {
+    expect(parseQuantity("0.5 cycle/s", "angularSpeed")).toBeCloseTo(180, 9);
+    expect(parseQuantity("1 rad/s", "angularSpeed")).toBeCloseTo(180 / Math.PI, 9);
+    expect(parseQuantity("2 kHz/s", "pulseAcceleration")).toBeCloseTo(2000, 9);
+    expect(() => parseQuantity("90 deg", "angularSpeed")).toThrow("expected an angular speed (deg/s), got 90 deg");
+  });
+
   it("bare numbers are canonical", () => {
     expect(parseQuantity("42", "pressure")).toBe(42);
     expect(parseQuantity(7, "volume")).toBe(7);
