@@ -55,7 +55,7 @@ export const ROLE_LABELS: Record<Role, string> = {
 
 export const ROLE_SUMMARIES: Record<Role, string> = {
   admin: "Everything, plus users, roles, releases and exports",
-  engineer: "Drafts sequences, rig profile, runs, bench logs; submits for review",
+  engineer: "Drafts sequences, rig profile, patient cases, runs, bench logs; submits for review",
   clinician: "Reviews runs, authors patient cases, comments, approves and signs",
   viewer: "Reads everything, changes nothing",
 };

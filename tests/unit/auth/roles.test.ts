@@ -19,7 +19,9 @@ describe("roles", () => {
     expect(canSign("clinician")).toBe(true);
     expect(canSign("engineer")).toBe(false);
     expect(can("clinician", "cases:edit")).toBe(true);
-    expect(can("engineer", "cases:edit")).toBe(false);
+    // The patient case library is open to engineers too (issue 5 §1); viewers only read it.
+    expect(can("engineer", "cases:edit")).toBe(true);
+    expect(can("viewer", "cases:edit")).toBe(false);
     expect(canRunSimulations("clinician")).toBe(true);
     expect(canCreateProject("clinician")).toBe(false);
     expect(ROLES.filter(canManageUsers)).toEqual(["admin"]);
