@@ -4,6 +4,7 @@ import type { Db } from "./index";
 import { sessions, users, type User } from "./schema";
 import type { Role } from "@/lib/auth/roles";
 import { hashPassword } from "@/lib/auth/password";
+import { sessionCacheFor } from "@/lib/auth/lucia";
 import type { UserSummary } from "@/lib/validation/users";
 
 export type { UserSummary };
@@ -40,10 +41,17 @@ export async function createUser(
 }
 
 export async function updateUser(db: Db, id: string, patch: { role?: Role; active?: boolean }): Promise<User | undefined> {
-  return db.transaction(async (tx) => {
-    const [row] = await tx.update(users).set(patch).where(eq(users.id, id)).returning();
-    // A deactivated account is signed out everywhere at once.
-    if (row && patch.active === false) await tx.delete(sessions).where(eq(sessions.userId, id));
-    return row;
-  });
+  try {
+    return await db.transaction(async (tx) => {
+      const [row] = await tx.update(users).set(patch).where(eq(users.id, id)).returning();
+      // A deactivated account is signed out everywhere at once.
+      if (row && patch.active === false) await tx.delete(sessions).where(eq(sessions.userId, id));
+      return row;
+    });
+  } finally {
+    // Validated sessions carry the role and active flag (lib/auth/session-cache.ts): forget this user's
+    // once the change is committed, so the next request reads the new row. Also after a rollback
+    // (harmless: one extra query per session).
+    sessionCacheFor(db).invalidateUser(id);
+  }
 }

@@ -1,9 +1,10 @@
 import "server-only";
-import { Lucia } from "lucia";
+import { Lucia, TimeSpan } from "lucia";
 import { DrizzlePostgreSQLAdapter } from "@lucia-auth/adapter-drizzle";
 import type { Db } from "@/db";
 import { sessions, users } from "@/db/schema";
 import type { Role } from "./roles";
+import { SessionCache } from "./session-cache";
 
 /**
  * Lucia v3 is no longer developed (STACK.md): it stays behind lib/auth so it can be replaced.
@@ -11,8 +12,12 @@ import type { Role } from "./roles";
  */
 export const SESSION_COOKIE = "tidewright_session";
 
+/** Lucia's default, spelt out because the session cache must know when Lucia slides the expiry. */
+const SESSION_LIFETIME = new TimeSpan(30, "d");
+
 function createLucia(db: Db) {
   return new Lucia(new DrizzlePostgreSQLAdapter(db, sessions, users), {
+    sessionExpiresIn: SESSION_LIFETIME,
     sessionCookie: {
       name: SESSION_COOKIE,
       // A long-lived cookie; Lucia slides the session's own 30-day expiry on use.
@@ -39,6 +44,18 @@ export function luciaFor(db: Db): AppLucia {
     instances.set(db, lucia);
   }
   return lucia;
+}
+
+const caches = new WeakMap<Db, SessionCache>();
+
+/** The validated-session cache of this database (lib/auth/session-cache.ts); one per Db, like Lucia. */
+export function sessionCacheFor(db: Db): SessionCache {
+  let cache = caches.get(db);
+  if (!cache) {
+    cache = new SessionCache(SESSION_LIFETIME.milliseconds());
+    caches.set(db, cache);
+  }
+  return cache;
 }
 
 declare module "lucia" {

@@ -39,6 +39,7 @@ import type { SimJob, SimOutcome } from "./protocol";
 import { runReadCache } from "./read-cache";
 import { runInputs } from "./snapshot";
 import { waveformCache } from "./waveform-cache";
+import { windowJsonCache, WindowJsonCache } from "./window-cache";
 
 /**
  * Engine wall-time budget: a fixed allowance plus a share per simulated second, so a 600 s run gets
@@ -247,7 +248,36 @@ export interface RunView {
 }
 
 export async function getRunView(db: Db, user: SessionUser, id: string): Promise<RunView> {
+  return runView(await readableRun(db, user, id));
+}
+
+/**
+ * Serialised views of finished runs, keyed by the read cache's record (one per caller, role and run,
+ * kept for its two seconds). Why: under load the summary's JSON (breaths, alarms, steps, the parsed
+ * patient and rig) cost more than the rest of the request once the queries were cached. A finished run
+ * is immutable, so the text lives exactly as long as the record it was made from; the caller's access is
+ * still decided on every request (readableRun), and `canRun` is per caller because the record is.
+ */
+const finishedViewJson = new WeakMap<RunRecord, string>();
+
+/** getRunView, as the JSON text of the response body. */
+export async function getRunViewJson(db: Db, user: SessionUser, id: string): Promise<string> {
   const run = await readableRun(db, user, id);
+  if (!isFinished(run.status)) return JSON.stringify(runView(run));
+  let json = finishedViewJson.get(run);
+  if (json === undefined) {
+    json = JSON.stringify(runView(run));
+    finishedViewJson.set(run, json);
+  }
+  return json;
+}
+
+function isFinished(status: RunStatusValue): boolean {
+  return status === "done" || status === "failed" || status === "cancelled";
+}
+
+function runView(run: RunRecord): RunView {
+  const id = run.id;
   const live = liveRuns().get(id);
   let status: RunStatusValue = run.status;
   let progress = run.status === "done" ? 1 : 0;
@@ -352,6 +382,20 @@ export async function getWaveformWindow(db: Db, user: SessionUser, id: string, q
   const run = await readableRun(db, user, id);
   const waveforms = await loadWaveforms(db, run);
   return waveformWindow(waveforms, parseSteps(run.steps).intervals, query, indexOf(waveforms));
+}
+
+/** getWaveformWindow, as the JSON text of the response body (shared windows: lib/runs/window-cache.ts). */
+export async function getWaveformWindowJson(db: Db, user: SessionUser, id: string, query: WaveformQuery): Promise<string> {
+  const run = await readableRun(db, user, id);
+  const waveforms = await loadWaveforms(db, run);
+  const cache = windowJsonCache();
+  const key = WindowJsonCache.key(id, query);
+  let json = cache.get(key, waveforms);
+  if (json === undefined) {
+    json = JSON.stringify(waveformWindow(waveforms, parseSteps(run.steps).intervals, query, indexOf(waveforms)));
+    cache.set(key, waveforms, json);
+  }
+  return json;
 }
 
 export async function getWaveformCsv(db: Db, user: SessionUser, id: string): Promise<Response> {
