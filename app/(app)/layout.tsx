@@ -13,7 +13,8 @@ export default async function AppLayout({ children }: { children: ReactNode }) {
   return (
     <>
       <Header user={user} projects={projects.map((p) => ({ id: p.id, name: p.name }))} />
-      <div className="mx-auto max-w-6xl px-4 py-8 sm:px-6">{children}</div>
+      {/* Wide: the canvas and the stacked charts use the room; forms and lists size themselves. */}
+      <div className="mx-auto max-w-[96rem] px-4 py-8 sm:px-6">{children}</div>
     </>
   );
 }

@@ -14,7 +14,7 @@ export interface HeaderProject {
 export function Header({ user, projects }: { user: SessionUser; projects: HeaderProject[] }) {
   return (
     <header className="border-b border-ink-800 bg-ink-900 text-ink-100">
-      <div className="mx-auto flex h-14 max-w-6xl items-center gap-6 px-4 sm:px-6">
+      <div className="mx-auto flex h-14 max-w-[96rem] items-center gap-6 px-4 sm:px-6">
         <Link href="/projects" className="text-white" aria-label="Tidewright home">
           <Logo />
         </Link>
