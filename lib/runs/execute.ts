@@ -26,7 +26,10 @@ export function executeJob(job: SimJob, control: RunControl): SimOutcome {
       shouldStop: () => control.cancelled,
     });
     if (control.cancelled) return { ok: false, reason: "cancelled", error: "Cancelled." };
-    const waveform = encodeWaveforms(result.waveforms);
+    // The engine's sample clock (lib/sim/simulate.ts defaults: dt 1 ms, the rig's scan period, 10 ms on
+    // the ideal circuit). Only a hint: the encoder stores t unless the grid reproduces it exactly.
+    const scanS = job.rig === "ideal" ? 0.01 : job.rig.scanPeriodS;
+    const waveform = encodeWaveforms(result.waveforms, typeof scanS === "number" ? { timeGrid: { dtS: 0.001, scanS } } : {});
     control.progress = 1;
     return {
       ok: true,

@@ -30,15 +30,15 @@ import { DEFAULT_RIG } from "@/lib/sim/default-rig";
 import { rigSchema, type Alarm, type Breath, type Patient, type Rig, type StepInterval, type Summary, type Waveforms } from "@/lib/sim/types";
 import { sequenceDefinition } from "@/machines/schema";
 import type { CreateRunBody, ListRunsQuery, RunRigValue, RunStatusValue, WaveformQuery } from "@/lib/validation/runs";
-import { decodeWaveforms } from "@/lib/waveform/codec";
+import { openWaveforms, StoredWaveforms, WaveformFormatError } from "@/lib/waveform/codec";
 import { csvStream } from "@/lib/waveform/csv";
-import { buildSignalIndex, waveformWindow, type MinMaxIndex, type WaveformWindow } from "@/lib/waveform/downsample";
+import { arraySource, buildSignalIndex, sourceWindow, type MinMaxIndex, type WaveformSource, type WaveformWindow } from "@/lib/waveform/downsample";
 import { WAVEFORM_SIGNALS } from "@/lib/validation/runs";
 import { MAX_QUEUED_JOBS, PoolBusyError, simulationPool, warmSimulationPool, type JobHandle } from "./pool";
 import type { SimJob, SimOutcome } from "./protocol";
 import { runReadCache } from "./read-cache";
 import { runInputs } from "./snapshot";
-import { waveformCache } from "./waveform-cache";
+import { waveformCache, type CachedWaveforms } from "./waveform-cache";
 import { windowJsonCache, WindowJsonCache } from "./window-cache";
 
 /**
@@ -346,16 +346,17 @@ export async function listRuns(db: Db, user: SessionUser, query: ListRunsQuery) 
   };
 }
 
-async function loadWaveforms(db: Db, run: RunRecord): Promise<Waveforms> {
+async function loadWaveforms(db: Db, run: RunRecord): Promise<CachedWaveforms> {
   if (run.status !== "done") throw new ApiError(409, "This run has no waveforms: it did not finish.");
   const cache = waveformCache();
   const cached = cache.get(run.id);
   if (cached) return cached;
   const blob = await findRunWaveform(db, run.id);
   if (!blob) throw new ApiError(409, "This run has no stored waveforms.");
-  let waveforms: Waveforms;
+  let waveforms: CachedWaveforms;
   try {
-    waveforms = decodeWaveforms(blob);
+    // v2 blobs: only the header and chunk table are read here; windows inflate what they need.
+    waveforms = openWaveforms(blob);
   } catch (err) {
     throw new ApiError(500, "The stored waveforms of this run could not be read.", undefined, { cause: err });
   }
@@ -378,10 +379,33 @@ function indexOf(w: Waveforms): MinMaxIndex | undefined {
   return index;
 }
 
+function sourceOf(w: CachedWaveforms): WaveformSource {
+  return w instanceof StoredWaveforms ? w : arraySource(w, indexOf(w));
+}
+
+/** A window over a stored run; a chunk that fails to inflate is a broken blob, not a bad request. */
+function windowOf(w: CachedWaveforms, steps: StepInterval[], query: WaveformQuery): WaveformWindow {
+  try {
+    return sourceWindow(sourceOf(w), steps, query);
+  } catch (err) {
+    if (err instanceof WaveformFormatError) throw new ApiError(500, "The stored waveforms of this run could not be read.", undefined, { cause: err });
+    throw err;
+  }
+}
+
+function fullOf(w: CachedWaveforms): Waveforms {
+  try {
+    return w instanceof StoredWaveforms ? w.full() : w;
+  } catch (err) {
+    if (err instanceof WaveformFormatError) throw new ApiError(500, "The stored waveforms of this run could not be read.", undefined, { cause: err });
+    throw err;
+  }
+}
+
 export async function getWaveformWindow(db: Db, user: SessionUser, id: string, query: WaveformQuery): Promise<WaveformWindow> {
   const run = await readableRun(db, user, id);
   const waveforms = await loadWaveforms(db, run);
-  return waveformWindow(waveforms, parseSteps(run.steps).intervals, query, indexOf(waveforms));
+  return windowOf(waveforms, parseSteps(run.steps).intervals, query);
 }
 
 /** getWaveformWindow, as the JSON text of the response body (shared windows: lib/runs/window-cache.ts). */
@@ -392,7 +416,7 @@ export async function getWaveformWindowJson(db: Db, user: SessionUser, id: strin
   const key = WindowJsonCache.key(id, query);
   let json = cache.get(key, waveforms);
   if (json === undefined) {
-    json = JSON.stringify(waveformWindow(waveforms, parseSteps(run.steps).intervals, query, indexOf(waveforms)));
+    json = JSON.stringify(windowOf(waveforms, parseSteps(run.steps).intervals, query));
     cache.set(key, waveforms, json);
   }
   return json;
@@ -403,7 +427,7 @@ export async function getWaveformCsv(db: Db, user: SessionUser, id: string): Pro
   const waveforms = await loadWaveforms(db, run);
   const names = parseSteps(run.steps).names;
   const filename = `run-${run.revision.sequenceName.replace(/[^A-Za-z0-9_-]+/g, "-").slice(0, 60)}-r${run.revision.number}-${run.id.slice(0, 8)}.csv`;
-  return new Response(csvStream(waveforms, names), {
+  return new Response(csvStream(fullOf(waveforms), names), {
     status: 200,
     headers: {
       "Content-Type": "text/csv; charset=utf-8",

@@ -10,7 +10,6 @@
  * decides it (lib/runs/service.ts readableRun) before every lookup.
  */
 import "server-only";
-import type { Waveforms } from "@/lib/sim/types";
 import type { WindowRequest } from "@/lib/waveform/downsample";
 
 const DEFAULT_BUDGET_BYTES = 32 * 1024 * 1024;
@@ -21,9 +20,9 @@ interface Entry {
   json: string;
 }
 
-const tokens = new WeakMap<Waveforms, number>();
+const tokens = new WeakMap<object, number>();
 let nextToken = 1;
-function tokenOf(w: Waveforms): number {
+function tokenOf(w: object): number {
   let t = tokens.get(w);
   if (t === undefined) {
     t = nextToken++;
@@ -42,7 +41,7 @@ export class WindowJsonCache {
     return [runId, query.from ?? "", query.to ?? "", query.points, query.signals.join(",")].join("\u0000");
   }
 
-  get(key: string, source: Waveforms): string | undefined {
+  get(key: string, source: object): string | undefined {
     const e = this.entries.get(key);
     if (!e) return undefined;
     this.delete(key);
@@ -52,7 +51,7 @@ export class WindowJsonCache {
     return e.json;
   }
 
-  set(key: string, source: Waveforms, json: string): void {
+  set(key: string, source: object, json: string): void {
     // JSON of numbers is ASCII: V8 keeps it one byte per character.
     if (json.length > this.budgetBytes) return;
     this.delete(key);

@@ -72,13 +72,21 @@ export function minMaxBuckets(
   buckets: number,
   index?: SignalIndex,
 ): number[] {
+  return minMaxBucketsOf(() => series, start, end, buckets, index);
+}
+
+/**
+ * minMaxBuckets over samples read through `read(a, b)` (which must make at least [a, b) readable):
+ * a stored run decodes only the stretches the index does not cover.
+ */
+function minMaxBucketsOf(read: RangeReader, start: number, end: number, buckets: number, index?: SignalIndex): number[] {
   const n = end - start;
   const out = new Array<number>(buckets * 2);
   const e: Extremes = { min: 0, iMin: 0, max: 0, iMax: 0 };
   for (let b = 0; b < buckets; b++) {
     const i0 = start + Math.floor((b * n) / buckets);
     const i1 = start + Math.floor(((b + 1) * n) / buckets);
-    rangeExtremes(series, index, i0, i1, e);
+    rangeExtremes(read, index, i0, i1, e);
     if (e.iMin <= e.iMax) {
       out[2 * b] = e.min;
       out[2 * b + 1] = e.max;
@@ -90,14 +98,20 @@ export function minMaxBuckets(
   return out;
 }
 
+type RangeReader = (a: number, b: number) => ArrayLike<number>;
+
 /**
- * Block min–max index: per block of BLOCK samples, the minimum and maximum of each signal and where
- * they occur. A bucket spanning many blocks then reads the blocks instead of every sample, with the
- * exact same result as the plain scan (first occurrence wins ties in both). Built once per cached run.
+ * Block min–max index: per block of `block` samples (from sample 0), the minimum and maximum of each
+ * signal and where they occur. A bucket spanning whole blocks then reads the blocks instead of every
+ * sample, with the exact same result as the plain scan (first occurrence wins ties in both). Built once
+ * per cached run, or stored with the run (format v2's overview) so a cold window need not inflate a
+ * signal whose buckets fall on block edges. 50 samples = 50 ms at 1 kHz: a whole 10-minute run in 1000
+ * buckets (600 samples each) is then served from the blocks alone.
  */
-export const INDEX_BLOCK = 64;
+export const INDEX_BLOCK = 50;
 
 export interface SignalIndex {
+  block: number;
   min: Float32Array;
   max: Float32Array;
   iMin: Uint32Array;
@@ -105,18 +119,19 @@ export interface SignalIndex {
 }
 export type MinMaxIndex = Partial<Record<WaveformSignal, SignalIndex>>;
 
-export function buildSignalIndex(series: ArrayLike<number>): SignalIndex {
+export function buildSignalIndex(series: ArrayLike<number>, block = INDEX_BLOCK): SignalIndex {
   const n = series.length;
-  const blocks = Math.ceil(n / INDEX_BLOCK);
+  const blocks = Math.ceil(n / block);
   const out: SignalIndex = {
+    block,
     min: new Float32Array(blocks),
     max: new Float32Array(blocks),
     iMin: new Uint32Array(blocks),
     iMax: new Uint32Array(blocks),
   };
   for (let b = 0; b < blocks; b++) {
-    const i0 = b * INDEX_BLOCK;
-    const i1 = Math.min(n, i0 + INDEX_BLOCK);
+    const i0 = b * block;
+    const i1 = Math.min(n, i0 + block);
     let min = series[i0];
     let max = min;
     let iMin = i0;
@@ -146,20 +161,41 @@ interface Extremes {
   iMax: number;
 }
 
-/** Min and max of series[i0, i1) (i1 > i0), through the index where whole blocks are covered. */
-function rangeExtremes(series: ArrayLike<number>, index: SignalIndex | undefined, i0: number, i1: number, out: Extremes): void {
-  out.min = series[i0];
-  out.max = out.min;
-  out.iMin = i0;
-  out.iMax = i0;
-  const firstBlock = index ? Math.ceil((i0 + 1) / INDEX_BLOCK) : 0;
-  const lastBlock = index ? Math.floor(i1 / INDEX_BLOCK) : 0; // exclusive
-  if (!index || lastBlock - firstBlock < 2) {
+/**
+ * Min and max of series[i0, i1) (i1 > i0), through the index where whole blocks are covered: a raw
+ * head [i0, first block), the blocks, a raw tail. Same visiting order as the plain scan, so the same
+ * result; raw samples are read only for a non-empty head or tail.
+ */
+function rangeExtremes(read: RangeReader, index: SignalIndex | undefined, i0: number, i1: number, out: Extremes): void {
+  const block = index?.block ?? 1;
+  const firstBlock = index ? Math.ceil(i0 / block) : 0;
+  const lastBlock = index ? Math.floor(i1 / block) : 0; // exclusive; the last block may be short only at n
+  if (!index || lastBlock - firstBlock < 1) {
+    const series = read(i0, i1);
+    out.min = series[i0];
+    out.max = out.min;
+    out.iMin = i0;
+    out.iMax = i0;
     scanInto(series, i0 + 1, i1, out);
     return;
   }
-  scanInto(series, i0 + 1, firstBlock * INDEX_BLOCK, out);
-  for (let b = firstBlock; b < lastBlock; b++) {
+  let b0 = firstBlock;
+  const headEnd = firstBlock * block;
+  if (headEnd > i0) {
+    const series = read(i0, headEnd);
+    out.min = series[i0];
+    out.max = out.min;
+    out.iMin = i0;
+    out.iMax = i0;
+    scanInto(series, i0 + 1, headEnd, out);
+  } else {
+    out.min = index.min[b0];
+    out.iMin = index.iMin[b0];
+    out.max = index.max[b0];
+    out.iMax = index.iMax[b0];
+    b0++;
+  }
+  for (let b = b0; b < lastBlock; b++) {
     if (index.min[b] < out.min) {
       out.min = index.min[b];
       out.iMin = index.iMin[b];
@@ -169,7 +205,8 @@ function rangeExtremes(series: ArrayLike<number>, index: SignalIndex | undefined
       out.iMax = index.iMax[b];
     }
   }
-  scanInto(series, lastBlock * INDEX_BLOCK, i1, out);
+  const tailStart = lastBlock * block;
+  if (i1 > tailStart) scanInto(read(tailStart, i1), tailStart, i1, out);
 }
 
 /** Extend `out` with samples [a, b); first occurrence wins ties. */
@@ -194,6 +231,49 @@ function scanInto(series: ArrayLike<number>, a: number, b: number, out: Extremes
   out.iMax = iMax;
 }
 
+/**
+ * What a window reads: sample times, signal values and (optionally) a block index per signal. Either
+ * decoded arrays (arraySource) or a stored run decoded on demand (lib/waveform/codec.ts).
+ */
+export interface WaveformSource {
+  readonly length: number;
+  time(i: number): number;
+  /** The signal's values, with at least samples [start, end) readable (indexed from sample 0). */
+  values(signal: WaveformSignal, start: number, end: number): ArrayLike<number>;
+  index(signal: WaveformSignal): SignalIndex | undefined;
+}
+
+export function arraySource(w: Waveforms, index?: MinMaxIndex): WaveformSource {
+  return {
+    length: w.t.length,
+    time: (i) => w.t[i],
+    values: (s) => w[s],
+    index: (s) => index?.[s],
+  };
+}
+
+function lowerBoundBy(src: WaveformSource, x: number): number {
+  let lo = 0;
+  let hi = src.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (src.time(mid) < x) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}
+
+function upperBoundBy(src: WaveformSource, x: number): number {
+  let lo = 0;
+  let hi = src.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (src.time(mid) <= x) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}
+
 function copyRange(a: ArrayLike<number>, start: number, end: number): number[] {
   const out = new Array<number>(end - start);
   for (let i = start; i < end; i++) out[i - start] = a[i];
@@ -206,29 +286,36 @@ export function waveformWindow(
   req: WindowRequest,
   index?: MinMaxIndex,
 ): WaveformWindow {
-  const n = w.t.length;
-  const tEnd = n > 0 ? w.t[n - 1] : 0;
+  return sourceWindow(arraySource(w, index), steps, req);
+}
+
+export function sourceWindow(src: WaveformSource, steps: readonly StepInterval[], req: WindowRequest): WaveformWindow {
+  const n = src.length;
+  const tEnd = n > 0 ? src.time(n - 1) : 0;
   const from = Math.max(0, Math.min(req.from ?? 0, tEnd));
   const to = Math.max(from, Math.min(req.to ?? tEnd, tEnd));
-  const start = lowerBound(w.t, from);
-  const end = upperBound(w.t, to);
+  const start = lowerBoundBy(src, from);
+  const end = upperBoundBy(src, to);
   const count = Math.max(0, end - start);
   const signals: Partial<Record<WaveformSignal, number[]>> = {};
   let t: number[];
 
   if (count <= req.points) {
-    t = copyRange(w.t, start, end);
-    for (const s of req.signals) signals[s] = copyRange(w[s], start, end);
+    t = new Array<number>(count);
+    for (let i = start; i < end; i++) t[i - start] = src.time(i);
+    for (const s of req.signals) signals[s] = count > 0 ? copyRange(src.values(s, start, end), start, end) : [];
   } else {
     const buckets = Math.max(1, Math.floor(req.points / 2));
     t = new Array<number>(buckets * 2);
     for (let b = 0; b < buckets; b++) {
       const i0 = start + Math.floor((b * count) / buckets);
       const i1 = start + Math.floor(((b + 1) * count) / buckets);
-      t[2 * b] = w.t[i0];
-      t[2 * b + 1] = w.t[i1 - 1];
+      t[2 * b] = src.time(i0);
+      t[2 * b + 1] = src.time(i1 - 1);
     }
-    for (const s of req.signals) signals[s] = minMaxBuckets(w[s], start, end, buckets, index?.[s]);
+    for (const s of req.signals) {
+      signals[s] = minMaxBucketsOf((a, b) => src.values(s, a, b), start, end, buckets, src.index(s));
+    }
   }
   return { from, to, points: t.length, t, signals, steps: stepsInWindow(steps, from, to) };
 }
