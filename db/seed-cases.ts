@@ -78,13 +78,13 @@ export const EXAMPLE_CASES: SeedCase[] = [
     description: "Sedated intubated adult with healthy lungs, no spontaneous effort. C 50 mL/cmH2O, R 5 cmH2O/(L/s), τ 0.25 s.",
     source:
       "Our example. Compliance about 40–50 mL/cmH2O and resistance about 1–8 cmH2O/(L/s) for intubated adults with " +
-      "normal lungs (published, respiratory care texts, via check-values.md).",
+      "normal lungs (published, respiratory care texts).",
     patient: { complianceMlPerCmH2O: 50, resistanceCmH2OPerLps: 5, effort: passive, leak: noLeak },
   },
   {
     name: "Adult, low compliance (ARDS-like)",
     description: "Stiff lungs, passive. C 25 mL/cmH2O, R 10 cmH2O/(L/s), τ 0.25 s: the same pressure moves half the volume.",
-    source: "Our example. ARDS compliance about 20–40 mL/cmH2O (memory, check-values.md).",
+    source: "Our example. ARDS compliance about 20–40 mL/cmH2O (memory).",
     patient: { complianceMlPerCmH2O: 25, resistanceCmH2OPerLps: 10, effort: passive, leak: noLeak },
   },
   {
@@ -92,7 +92,7 @@ export const EXAMPLE_CASES: SeedCase[] = [
     description:
       "Obstructed airways, passive. C 50 mL/cmH2O, R 25 cmH2O/(L/s), τ 1.25 s: slow to fill and to empty; watch for " +
       "incomplete exhalation at high rates.",
-    source: "Our example. Obstructive disease resistance about 15–30 cmH2O/(L/s) (memory, check-values.md).",
+    source: "Our example. Obstructive disease resistance about 15–30 cmH2O/(L/s) (memory).",
     patient: { complianceMlPerCmH2O: 50, resistanceCmH2OPerLps: 25, effort: passive, leak: noLeak },
   },
   {
@@ -144,7 +144,7 @@ export const EXAMPLE_CASES: SeedCase[] = [
       "Normal lungs, passive, with an orifice leak of 15 L/min at 10 cmH2O (flow ∝ √pressure): delivered and exhaled " +
       "volumes part, and a pressure trigger may auto-trigger.",
     source:
-      "Our example. Lungs as 'normal lungs' (published ranges, check-values.md); the leak size is a moderate mask leak " +
+      "Our example. Lungs as 'normal lungs' (published ranges); the leak size is a moderate mask leak " +
       "chosen as a test value (common practice, no single source).",
     patient: { complianceMlPerCmH2O: 50, resistanceCmH2OPerLps: 5, effort: passive, leak: { kind: "orifice", coefficient: 15 } },
   },

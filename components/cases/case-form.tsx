@@ -1,14 +1,16 @@
 "use client";
 /**
  * Create or edit a patient case. The same zod schema as the handler (lib/validation/cases.ts) checks the
- * form; the API's field errors land on the matching inputs.
+ * form; the API's field errors land on the matching inputs. Numbers may be typed with units ("50 mL/hPa")
+ * and are sent in the canonical unit shown beside each field (case-units.ts).
  */
 import { useState } from "react";
 import { useRouter } from "next/navigation";
-import { useForm, type FieldPath } from "react-hook-form";
-import { zodResolver } from "@hookform/resolvers/zod";
-import { createCaseBody, type CreateCaseBody, type CreateCaseInput } from "@/lib/validation/cases";
+import { get, useForm, useWatch, type FieldErrors, type FieldPath } from "react-hook-form";
+import type { CreateCaseBody } from "@/lib/validation/cases";
 import { EFFORT_SHAPES, type Patient } from "@/lib/sim/types";
+import { convertedText, readValue } from "@/components/forms/unit-field";
+import { EFFORT_FIELDS, LUNG_FIELDS, caseResolver, leakField, type CaseField, type CaseFormValues } from "./case-units";
 import { apiFetch, ApiClientError } from "@/components/ui/api-client";
 import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
@@ -20,7 +22,7 @@ export interface CaseFormProps {
   initial?: { name: string; description: string; source: string; patient: Patient };
 }
 
-const BLANK: CreateCaseInput = {
+const BLANK: CaseFormValues = {
   name: "",
   description: "",
   source: "",
@@ -33,18 +35,51 @@ const BLANK: CreateCaseInput = {
   },
 };
 
-const num = { valueAsNumber: true } as const;
+function messageAt(errors: FieldErrors<CaseFormValues>, path: string): string | undefined {
+  const node: unknown = get(errors, path);
+  if (typeof node === "object" && node !== null && "message" in node) {
+    const message = (node as { message?: unknown }).message;
+    return typeof message === "string" ? message : undefined;
+  }
+  return undefined;
+}
 
 export function CaseForm({ caseId, initial }: CaseFormProps) {
   const router = useRouter();
   const [error, setError] = useState<string | null>(null);
   const [saved, setSaved] = useState(false);
-  const form = useForm<CreateCaseInput, unknown, CreateCaseBody>({
-    resolver: zodResolver(createCaseBody),
+  const form = useForm<CaseFormValues, unknown, CreateCaseBody>({
+    resolver: caseResolver,
     defaultValues: initial ?? BLANK,
   });
   const { errors, isSubmitting } = form.formState;
   const pe = errors.patient;
+  // Watched so each field can show what its typed units come to as the user types.
+  const watched = useWatch({ control: form.control }) as CaseFormValues;
+
+  function numberField(field: CaseField) {
+    const message = messageAt(errors, field.path);
+    // Only a value that reads cleanly shows its conversion; an error says what went wrong instead.
+    const converted = message ? null : convertedText(readValue(get(watched, field.path), field.quantity, field.unit), field.unit);
+    return (
+      <Field key={field.path} label={field.label} errors={message} hint={field.hint}>
+        {(a) => (
+          <>
+            <div className="flex items-center gap-2">
+              {/* Text, not type="number": "50 mL/hPa" must reach the unit parser. */}
+              <Input {...a} type="text" inputMode="decimal" spellCheck={false} className="font-mono tabular-nums" {...form.register(field.path)} />
+              <span className="shrink-0 text-xs text-ink-500">{field.unit}</span>
+            </div>
+            {converted ? (
+              <p className="text-xs text-ink-500" data-testid={`${field.path}-converted`}>
+                {converted}
+              </p>
+            ) : null}
+          </>
+        )}
+      </Field>
+    );
+  }
 
   const onSubmit = form.handleSubmit(async (values) => {
     setError(null);
@@ -62,7 +97,7 @@ export function CaseForm({ caseId, initial }: CaseFormProps) {
     } catch (err) {
       if (err instanceof ApiClientError) {
         for (const [name, messages] of Object.entries(err.fields)) {
-          form.setError(name as FieldPath<CreateCaseInput>, { message: messages.join(" ") });
+          form.setError(name as FieldPath<CaseFormValues>, { message: messages.join(" ") });
         }
       }
       setError(err instanceof Error ? err.message : "Could not save the case.");
@@ -89,15 +124,7 @@ export function CaseForm({ caseId, initial }: CaseFormProps) {
 
       <fieldset className="grid gap-4 sm:grid-cols-3">
         <legend className="mb-2 text-sm font-semibold text-ink-900">Lung mechanics</legend>
-        <Field label="Compliance (mL/cmH2O)" errors={pe?.complianceMlPerCmH2O?.message}>
-          {(a) => <Input {...a} type="number" step="any" {...form.register("patient.complianceMlPerCmH2O", num)} />}
-        </Field>
-        <Field label="Resistance (cmH2O/(L/s))" errors={pe?.resistanceCmH2OPerLps?.message}>
-          {(a) => <Input {...a} type="number" step="any" {...form.register("patient.resistanceCmH2OPerLps", num)} />}
-        </Field>
-        <Field label="Non-linear elastance E2 (cmH2O/L²)" errors={pe?.e2CmH2OPerL2?.message} hint="0 for a linear lung.">
-          {(a) => <Input {...a} type="number" step="any" {...form.register("patient.e2CmH2OPerL2", num)} />}
-        </Field>
+        {LUNG_FIELDS.map(numberField)}
       </fieldset>
 
       <fieldset className="grid gap-4 sm:grid-cols-3">
@@ -113,21 +140,7 @@ export function CaseForm({ caseId, initial }: CaseFormProps) {
             </Select>
           )}
         </Field>
-        <Field label="Peak muscle pressure (cmH2O)" errors={pe?.effort?.amplitudeCmH2O?.message}>
-          {(a) => <Input {...a} type="number" step="any" {...form.register("patient.effort.amplitudeCmH2O", num)} />}
-        </Field>
-        <Field label="Rate (/min)" errors={pe?.effort?.ratePerMin?.message}>
-          {(a) => <Input {...a} type="number" step="any" {...form.register("patient.effort.ratePerMin", num)} />}
-        </Field>
-        <Field label="Effort time (s)" errors={pe?.effort?.effortTimeS?.message}>
-          {(a) => <Input {...a} type="number" step="any" {...form.register("patient.effort.effortTimeS", num)} />}
-        </Field>
-        <Field label="First onset (s)" errors={pe?.effort?.onsetS?.message}>
-          {(a) => <Input {...a} type="number" step="any" {...form.register("patient.effort.onsetS", num)} />}
-        </Field>
-        <Field label="Variability (fraction)" errors={pe?.effort?.variability?.message} hint="0 = regular, 0.3 = ±30 %.">
-          {(a) => <Input {...a} type="number" step="any" {...form.register("patient.effort.variability", num)} />}
-        </Field>
+        {EFFORT_FIELDS.map(numberField)}
       </fieldset>
 
       <fieldset className="grid gap-4 sm:grid-cols-3">
@@ -141,13 +154,7 @@ export function CaseForm({ caseId, initial }: CaseFormProps) {
             </Select>
           )}
         </Field>
-        <Field
-          label="Coefficient"
-          errors={pe?.leak?.coefficient?.message}
-          hint="Orifice: L/min at 10 cmH2O. Linear: L/min per cmH2O."
-        >
-          {(a) => <Input {...a} type="number" step="any" {...form.register("patient.leak.coefficient", num)} />}
-        </Field>
+        {numberField(leakField(watched.patient?.leak?.kind))}
       </fieldset>
 
       <div className="flex justify-end">

@@ -5,18 +5,15 @@
 import type { FieldPath } from "react-hook-form";
 import type { RigInput } from "@/lib/sim/types";
 import type { Quantity } from "@/lib/units";
+import type { Editable } from "@/components/forms/unit-field";
+
+// Generic, so it lives with the shared unit helpers; re-exported for the rig form's existing imports.
+export type { Editable };
 
 /**
  * What the form holds while the user types: every number of the profile may be text with units
  * ("0.1 psi") until the resolver converts it to the canonical unit (rig-units.ts).
  */
-export type Editable<T> = T extends number
-  ? number | string
-  : T extends readonly (infer U)[]
-    ? Editable<U>[]
-    : T extends object
-      ? { [K in keyof T]: Editable<T[K]> }
-      : T;
 export type RigFormValues = Editable<RigInput>;
 
 export interface RigField {
