@@ -1,6 +1,6 @@
 /**
  * Reference patient cases every installation gets, each with its source written on it.
- * Tags follow /work/shared/reference/check-values.md: published, derived, memory, common practice.
+ * Each source is tagged: published, derived, memory (recalled, not checked against the document) or common practice.
  *
  * Registered as a base seed step (db/seed.ts `baseSeedSteps`): idempotent, matched by name among the
  * seeded rows, so running it twice adds nothing.
@@ -23,7 +23,7 @@ export const resistanceFromHpa = (hpaPerLps: number) => round4(hpaPerLps * CMH2O
 export const pressureFromHpa = (hpa: number) => round4(hpa * CMH2O_PER_HPA);
 
 /**
- * ISO 80601-2-12:2020 Table 201.105, adult rows, as transcribed in public sources (check-values.md),
+ * ISO 80601-2-12:2020 Table 201.105, adult rows, as transcribed in public sources (not read from the standard itself),
  * in the table's own units: VT mL (nominal), C mL/hPa, R hPa/(L/s), f /min, Ti s, ΔP hPa above PEEP, PEEP hPa.
  */
 export const ISO_80601_2_12_TABLE_201_105 = [
@@ -71,7 +71,7 @@ export const ISO_CASES: SeedCase[] = ISO_80601_2_12_TABLE_201_105.map((r) => ({
   },
 }));
 
-/** Our own adult examples, values picked from the ranges in check-values.md. */
+/** Our own adult examples, values picked from the published (respiratory care texts) and recalled ranges named on each. */
 export const EXAMPLE_CASES: SeedCase[] = [
   {
     name: "Adult, normal lungs (passive)",

@@ -44,7 +44,7 @@ export const DEFAULT_RIG: Rig = rigSchema.parse({
     inletResistanceCmH2OPerLps: 2,
   },
   // An adjustable PEEP valve that follows the sequence's PEEP setting. A fixed spring valve near 0.1 psi
-  // (≈ 7.03 cmH2O, check-values.md) is the usual alternative on such builds: set peepValveCmH2O to 7.03.
+  // (≈ 7.03 cmH2O: 1 psi = 6894.757 Pa, 1 cmH2O = 98.0665 Pa; derived) is the usual alternative on such builds: set peepValveCmH2O to 7.03.
   peepValveCmH2O: null,
   // Mechanical failsafe at 40 cmH2O: MHRA RMVS v1 (20 March 2020) — patient never exposed to more than 40 cmH2O.
   reliefValveCmH2O: 40,

@@ -3,7 +3,7 @@
  * variability and exact onsets: the engine knows every effort, which makes trigger latency and asynchrony exact.
  *
  * Shapes:
- * - half-sine: A·sin(π·t/Ti) over the effort time (common in simulation, check-values.md);
+ * - half-sine: A·sin(π·t/Ti) over the effort time (common in simulation; common practice);
  * - ramp: linear rise to A over Ti, then release;
  * - parabolic-exp: parabolic rise to A at Ti, exponential relaxation to 0 by the next onset
  *   (after Albanese et al., Am J Physiol Heart Circ Physiol 2016;310:H899 — formula from memory):

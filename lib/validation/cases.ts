@@ -17,7 +17,7 @@ export const caseName = z
 
 export const caseDescription = z.string({ error: "description must be text" }).trim().max(2000, "keep the description to 2000 characters");
 
-/** Where the numbers come from: a citation, or "memory" / "common practice" (check-values.md tags). */
+/** Where the numbers come from: a citation, or "memory" / "common practice" (the tags for values without a single source). */
 export const caseSource = z.string({ error: "source must be text" }).trim().max(500, "keep the source to 500 characters");
 
 export const createCaseBody = z

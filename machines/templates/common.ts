@@ -96,7 +96,7 @@ export const TRIGGER: Settings[string] = {
 export const SENSITIVITY: Settings[string] = {
   label: "Trigger sensitivity",
   // One setting serves both triggers, as the product spec asks: cmH2O below PEEP for a pressure trigger,
-  // L/min for a flow trigger; typical 1–2 cmH2O or ~2 L/min (textbook reproductions, see check-values.md
+  // L/min for a flow trigger; typical 1–2 cmH2O or ~2 L/min (textbook reproductions; common practice
   // "Triggering and synchrony"). The bare unit is the fallback for a trigger option unitBy does not list.
   unit: "",
   unitBy: { setting: "trigger", units: { pressure: "cmH2O", flow: "L/min" } },

@@ -106,7 +106,7 @@ describe("settings table", () => {
     expect(screen.getByTestId("setting-effective-unit-sensitivity")).toHaveTextContent('cmH2O while trigger is "pressure"');
     const cell = screen.getByTestId("setting-value-sensitivity");
     fireEvent.change(cell, { target: { value: "2 hPa" } });
-    // 1 hPa = 1.019716 cmH2O (check-values.md "Units", derived)
+    // 1 hPa = 1.019716 cmH2O (derived: 100 Pa / 98.0665 Pa)
     expect(screen.getByText("= 2.03943 cmH2O")).toBeInTheDocument();
     fireEvent.keyDown(cell, { key: "Enter" });
     expect(lastDef(onChange).settings.sensitivity.value).toBeCloseTo(2.03943, 4);

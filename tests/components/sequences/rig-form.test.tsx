@@ -45,7 +45,7 @@ async function retype(input: HTMLElement, text: string) {
 const save = () => userEvent.click(screen.getByRole("button", { name: "Save rig profile" }));
 
 describe("RigForm units", () => {
-  it('"0.1 psi" in the PEEP valve is sent as ≈ 7.03 cmH2O (1 psi = 70.307 cmH2O, check-values.md "Units", derived)', async () => {
+  it('"0.1 psi" in the PEEP valve is sent as ≈ 7.03 cmH2O (1 psi = 70.307 cmH2O, derived: 6894.757 Pa / 98.0665 Pa)', async () => {
     const fetchMock = stubFetch();
     renderForm();
     // The default valve follows the sequence's PEEP; give it its own setting first.

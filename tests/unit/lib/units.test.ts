@@ -1,4 +1,4 @@
-/** Unit parsing to canonical units (check-values.md "Units"). */
+/** Unit parsing to canonical units (1 cmH2O = 98.0665 Pa conventional; 1 psi = 6894.757 Pa; 1 hPa = 100 Pa; mathjs units as the reference library). */
 import { describe, expect, it } from "vitest";
 import { UnitError, parseQuantity, parseSettingValue, quantityOfUnit } from "@/lib/units";
 

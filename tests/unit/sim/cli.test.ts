@@ -12,7 +12,7 @@ function sim(args: string[]) {
 }
 
 describe("npm run sim", () => {
-  it('"Done when": ISO row 1 on the ideal circuit gives Vti 490.8 mL ± 0.5 % and PIP 15 (check-values.md, derived)', () => {
+  it('"Done when": ISO row 1 on the ideal circuit gives Vti 490.8 mL ± 0.5 % and PIP 15 (ISO 80601-2-12:2020 Table 201.105 row 1, transcribed; Vti = C·ΔP·(1 − e^(−Ti/τ)), derived)', () => {
     const r = sim(
       "--template pressure-control --set PEEP=5 --set Pinsp=10 --set RR=20 --set Ti=1 --set rise=0 --lung C=50 --lung R=5 --circuit ideal --duration 30 --json".split(" "),
     );

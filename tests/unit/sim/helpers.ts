@@ -4,7 +4,7 @@ import { DEFAULT_RIG } from "@/lib/sim/default-rig";
 import type { PatientInput, RigInput, SimOptions, SimResult } from "@/lib/sim/types";
 import { getTemplate } from "@/machines/templates";
 
-/** 1 hPa = 1.019716 cmH2O (check-values.md, derived from 100 Pa / 98.0665 Pa). */
+/** 1 hPa = 1.019716 cmH2O (derived from 100 Pa / 98.0665 Pa). */
 export const CMH2O_PER_HPA = 100 / 98.0665;
 
 export function run(

@@ -1,6 +1,6 @@
 /**
  * The plant against analytic single-compartment results and published bench conditions.
- * Sources are named beside each check (tags as in check-values.md).
+ * Sources are named beside each check, tagged published, derived, memory or common practice.
  */
 import { describe, expect, it } from "vitest";
 import { CMH2O_PER_HPA, run, sampleAt } from "./helpers";
@@ -12,7 +12,7 @@ describe("equation of motion (Chatburn, Respir Care 2014;59(4):e61 — published
     const r = run("volume-control", { PEEP: 5, Vt: 500, Ti: 0.5, pause: 0.3, RR: 12 }, passive(50, 10), "ideal", 10);
     expect(r.breaths.length).toBeGreaterThanOrEqual(2);
     for (const b of r.breaths) {
-      // Pplat = PEEP + Vt/C; PIP = Pplat + R·flow (check-values.md, derived)
+      // Pplat = PEEP + Vt/C; PIP = Pplat + R·flow (Chatburn, Respir Care 2014;59(4):e61 equation of motion; derived)
       expect(b.pplat).toBeCloseTo(15, 1);
       expect(b.pip).toBeCloseTo(25, 1);
       expect(b.vti).toBeCloseTo(500, 0);
@@ -35,7 +35,7 @@ describe("equation of motion (Chatburn, Respir Care 2014;59(4):e61 — published
     // Peak inspiratory flow ΔP/R = 2 L/s = 120 L/min at the start; the first 1 ms step averages it (−0.2 %).
     expect(r.breaths[0].peakFlow).toBeGreaterThan(120 * 0.997);
     expect(r.breaths[0].peakFlow).toBeLessThanOrEqual(120);
-    expect(r.breaths[0].vti).toBeCloseTo(490.8, 0); // check-values.md row 1 (derived)
+    expect(r.breaths[0].vti).toBeCloseTo(490.8, 0); // ISO 80601-2-12:2020 Table 201.105 row 1, transcribed; analytic C·ΔP·(1 − e^(−4)) (derived)
   });
 
   it("passive exhalation: fraction exhaled after 1–5 τ is 1 − e^(−n) (derived: 0.63212 … 0.99326)", () => {
@@ -56,7 +56,7 @@ describe("equation of motion (Chatburn, Respir Care 2014;59(4):e61 — published
 /**
  * ISO 80601-2-12:2020 Table 201.105 (transcribed), adult pressure-controlled test-lung rows.
  * Units hPa, mL/hPa, hPa/(L/s); converted with 1 hPa = 1.019716 cmH2O. The VT column is nominal: we
- * assert the single-compartment analytic value instead (check-values.md).
+ * assert the single-compartment analytic value instead (derived).
  */
 const ISO_ROWS = [
   { row: 1, C: 50, R: 5, f: 20, Ti: 1, dP: 10, PEEP: 5 },
