@@ -1,6 +1,6 @@
 import localFont from "next/font/local";
 
-// Shipped in fonts/ (OFL licences beside them): next/font/google would download at build time.
+// Shipped in fonts/ (OFL licences beside them): a font service download at build time would fail offline.
 export const plexSans = localFont({
   src: [
     { path: "../fonts/ibm-plex-sans-latin-400-normal.woff2", weight: "400", style: "normal" },
