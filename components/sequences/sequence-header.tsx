@@ -7,6 +7,7 @@ import type { ReactNode } from "react";
 import type { SequenceView } from "@/lib/sequences/types";
 import { cn } from "@/components/ui/cn";
 import { StatusBadge } from "./status-badge";
+import { SequenceBreadcrumb } from "./sequence-breadcrumb";
 
 interface Props {
   project: { id: string; name: string };
@@ -23,15 +24,7 @@ export function SequenceHeader({ project, sequence, current, children }: Props) 
   ] as const;
   return (
     <header className="mb-6 space-y-3">
-      <nav aria-label="Breadcrumb" className="text-xs text-ink-500">
-        <Link href={`/projects/${project.id}`} className="hover:text-ink-800">
-          {project.name}
-        </Link>
-        <span aria-hidden> › </span>
-        <Link href={`/projects/${project.id}/sequences`} className="hover:text-ink-800">
-          Sequences
-        </Link>
-      </nav>
+      <SequenceBreadcrumb project={project} />
       <div className="flex flex-wrap items-center justify-between gap-3">
         <div className="flex items-center gap-3">
           <h1 className="text-2xl font-semibold tracking-tight text-ink-900">{sequence.name}</h1>

@@ -1,5 +1,5 @@
 import type { Metadata } from "next";
-import Link from "next/link";
+import { SequenceBreadcrumb } from "@/components/sequences/sequence-breadcrumb";
 import { can } from "@/lib/auth/roles";
 import { loadProjectPage } from "@/lib/sequences/page-data";
 import { templateSummaries } from "@/lib/sequences/template-summaries";
@@ -23,15 +23,7 @@ export default async function NewSequencePage({
   const preselect = typeof requested === "string" && templates.some((t) => t.id === requested) ? requested : undefined;
   return (
     <main className="max-w-3xl">
-      <nav aria-label="Breadcrumb" className="mb-2 text-xs text-ink-500">
-        <Link href={`/projects/${project.id}`} className="hover:text-ink-800">
-          {project.name}
-        </Link>
-        <span aria-hidden> › </span>
-        <Link href={`/projects/${project.id}/sequences`} className="hover:text-ink-800">
-          Sequences
-        </Link>
-      </nav>
+      <SequenceBreadcrumb project={project} className="mb-2" />
       <h1 className="mb-6 text-2xl font-semibold tracking-tight text-ink-900">New sequence</h1>
       {can(role, "sequences:edit") ? (
         <CreateSequenceForm projectId={project.id} templates={templates} defaultTemplate={preselect} />
